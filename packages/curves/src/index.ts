@@ -1,0 +1,2 @@
+export * from './units.ts';
+export * from './geometry.ts';
