@@ -1,0 +1,78 @@
+/**
+ * Tables written by the pipeline stages (reduce, aggregate, design, monitor). Each result row is
+ * keyed by (test or group, settings hash, algorithm version) so old and new results stand side by
+ * side. Created by migrations/0100-results.ts.
+ */
+import type { ColumnType, Generated, JSONColumnType } from 'kysely';
+
+type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+type Json<T = unknown> = JSONColumnType<T, string, string>;
+
+export type StageName = 'reduce' | 'aggregate' | 'design' | 'monitor' | 'sample' | 'report';
+
+export interface StageSettingsTable {
+  hash: string;
+  stage: StageName;
+  body: Json;
+  created_at: Generated<Timestamp>;
+}
+
+export interface StageRunsTable {
+  id: Generated<string>;
+  stage: StageName;
+  settings_hash: string;
+  input_hash: string | null;
+  code_version: string;
+  started_at: Generated<Timestamp>;
+  finished_at: Timestamp | null;
+  status: Generated<'running' | 'done' | 'failed'>;
+  counts: Json<Record<string, number>>;
+}
+
+export interface TestResultsTable {
+  test_pk: string;
+  settings_hash: string;
+  algorithm_version: string;
+  run_id: string;
+  ok: boolean;
+  given: Generated<boolean>;
+  failure_code: string | null;
+  failure_message: string | null;
+  modulus_gpa: number | null;
+  rp02_mpa: number | null;
+  rt05_mpa: number | null;
+  reh_mpa: number | null;
+  rel_mpa: number | null;
+  ype_pct: number | null;
+  rm_mpa: number | null;
+  ag_pct: number | null;
+  agt_pct: number | null;
+  a_pct: number | null;
+  yt_ratio: number | null;
+  n_value: number | null;
+  k_mpa: number | null;
+  yield_mpa: number | null;
+  yield_definition: 'rp0.2' | 'rt0.5' | 'reh' | 'rel' | null;
+  shape_class: 'plateau' | 'continuous' | 'bilinear' | null;
+  flags: Generated<string[]>;
+  uniform_plastic_strain: number | null;
+  grid_stress_mpa: (number | null)[] | null;
+  fits: Json | null;
+  details: Json | null;
+  created_at: Generated<Timestamp>;
+}
+
+export interface GroupResultsTable {
+  run_id: string;
+  stage: 'aggregate' | 'design' | 'monitor' | 'sample';
+  group_key: Json<Record<string, string>>;
+  property: Generated<string>;
+  body: Json;
+}
+
+export interface ResultTables {
+  stage_settings: StageSettingsTable;
+  stage_runs: StageRunsTable;
+  test_results: TestResultsTable;
+  group_results: GroupResultsTable;
+}
