@@ -6,7 +6,7 @@
 import type { ColumnType, Generated, JSONColumnType } from 'kysely';
 
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
-type Json<T = unknown> = JSONColumnType<T, string, string>;
+type Json<T extends object | null = object> = JSONColumnType<T, string, string>;
 
 export type StageName = 'reduce' | 'aggregate' | 'design' | 'monitor' | 'sample' | 'report';
 
