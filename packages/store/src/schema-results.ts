@@ -18,7 +18,7 @@ export interface StageSettingsTable {
 }
 
 export interface StageRunsTable {
-  id: Generated<string>;
+  id: Generated<number>;
   stage: StageName;
   settings_hash: string;
   input_hash: string | null;
@@ -30,10 +30,10 @@ export interface StageRunsTable {
 }
 
 export interface TestResultsTable {
-  test_pk: string;
+  test_pk: number;
   settings_hash: string;
   algorithm_version: string;
-  run_id: string;
+  run_id: number;
   ok: boolean;
   given: Generated<boolean>;
   failure_code: string | null;
@@ -63,7 +63,7 @@ export interface TestResultsTable {
 }
 
 export interface GroupResultsTable {
-  run_id: string;
+  run_id: number;
   stage: 'aggregate' | 'design' | 'monitor' | 'sample';
   group_key: Json<Record<string, string>>;
   property: Generated<string>;
