@@ -1,0 +1,48 @@
+/**
+ * Alerts from chart flags: a contiguous run of flagged points is one episode and raises one
+ * alert (first date, the most telling magnitude, and the tests involved), so a sustained shift
+ * does not flood the list. Rule names:
+ *   individuals-below-lcl, individuals-above-ucl, mr-above-ucl, ewma-low, ewma-high,
+ *   cusum-low, cusum-high, change-point-down, change-point-up, capability-margin.
+ * magnitude_unit is 'sd' (multiples of the baseline sigma) or 'property-units'; every alert
+ * also carries magnitude_sd so alerts can be ranked on one scale.
+ */
+
+export interface Alert {
+  rule: string;
+  first_date: string;
+  first_index: number;
+  last_date: string;
+  last_index: number;
+  /** Signed: negative for a move down. */
+  magnitude: number;
+  magnitude_unit: 'sd' | 'property-units';
+  magnitude_sd: number;
+  /** Test ids involved, in time order. */
+  tests: string[];
+  /** What the magnitude is, in words. */
+  detail: string;
+}
+
+/** Inclusive [start, end] index ranges of consecutive nonzero flags. */
+export function flagEpisodes(flags: ArrayLike<number | boolean>): Array<[number, number]> {
+  const out: Array<[number, number]> = [];
+  let start = -1;
+  for (let i = 0; i < flags.length; i++) {
+    if (flags[i]) {
+      if (start < 0) start = i;
+    } else if (start >= 0) {
+      out.push([start, i - 1]);
+      start = -1;
+    }
+  }
+  if (start >= 0) out.push([start, flags.length - 1]);
+  return out;
+}
+
+/** Index in [a, b] where score is most extreme in the given direction (−1: smallest, +1: largest). */
+export function extremeIndex(score: (i: number) => number, a: number, b: number, direction: 1 | -1): number {
+  let best = a;
+  for (let i = a + 1; i <= b; i++) if (direction * score(i) > direction * score(best)) best = i;
+  return best;
+}
