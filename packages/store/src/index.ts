@@ -1,0 +1,11 @@
+export * from './schema.ts';
+export type { ResultTables } from './schema-results.ts';
+export { openStore, isServerTarget, ping } from './open-store.ts';
+export type { Store, Engine, OpenStoreOptions } from './open-store.ts';
+export { migrateToLatest, MigrationError, MIGRATION_FOLDER } from './migrate.ts';
+export { copyLine, copyField, arrayLiteral } from './copy-text.ts';
+export type { CopyValue } from './copy-text.ts';
+export { listTests } from './list-tests.ts';
+export type { TestFilter, TestListing } from './list-tests.ts';
+export { iterateCurrentTests } from './iterate-current-tests.ts';
+export type { CurrentTest, StoredCurve, StoredSummary, IterateOptions } from './iterate-current-tests.ts';

@@ -1,0 +1,236 @@
+/**
+ * Opens the store: an embedded PGlite database in a folder (created on first use; `memory://` for
+ * an in-memory one), or a PostgreSQL server (`postgres://…` / `postgresql://…`) through a `pg`
+ * pool. Both speak the same SQL; bulk rows go in by COPY (pg-copy-streams on a server, PGlite's
+ * COPY from `/dev/blob` embedded, sent in chunks of about 8 MB so memory stays bounded).
+ *
+ * `copyRows` called inside `store.transaction(fn)` writes on that transaction's connection (the
+ * transaction is tracked with AsyncLocalStorage); outside, it runs in its own implicit
+ * transaction on a connection of its own.
+ *
+ * Type parsing is made the same on both engines: int8 → number (ids stay far below 2^53),
+ * date → 'YYYY-MM-DD' string.
+ */
+import { AsyncLocalStorage } from 'node:async_hooks';
+import { mkdirSync } from 'node:fs';
+import { PGlite } from '@electric-sql/pglite';
+import { Kysely, PostgresDialect, sql } from 'kysely';
+import type { PostgresPool, PostgresPoolClient } from 'kysely';
+import { PGliteDialect } from 'kysely-pglite-dialect';
+import pg from 'pg';
+import { from as copyFrom } from 'pg-copy-streams';
+import { copyLine } from './copy-text.ts';
+import { migrateToLatest } from './migrate.ts';
+import type { Database } from './schema.ts';
+
+export type Engine = 'pglite' | 'postgres';
+
+export interface Store {
+  db: Kysely<Database>;
+  engine: Engine;
+  target: string;
+  /** Bulk-writes rows (values in column order) by COPY; returns the number of rows written. */
+  copyRows(table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number>;
+  /** Runs `fn` in one transaction (committed when it resolves, rolled back when it throws). */
+  transaction<T>(fn: (trx: Kysely<Database>) => Promise<T>): Promise<T>;
+  close(): Promise<void>;
+}
+
+export interface OpenStoreOptions {
+  /** apply pending migrations (default true) */
+  migrate?: boolean;
+}
+
+export function isServerTarget(target: string): boolean {
+  return /^postgres(ql)?:\/\//i.test(target);
+}
+
+const IDENT = /^[a-z_][a-z0-9_]*$/;
+function copySql(table: string, columns: string[], source: string): string {
+  for (const n of [table, ...columns]) if (!IDENT.test(n)) throw new Error(`copyRows: not a plain identifier: ${n}`);
+  return `copy ${table} (${columns.join(', ')}) from ${source}`;
+}
+
+const PGLITE_CHUNK_BYTES = 8 * 1024 * 1024;
+
+async function* eachRow(rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): AsyncGenerator<unknown[]> {
+  yield* rows as AsyncIterable<unknown[]>;
+}
+
+function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
+  return (async () => {
+    if (!target.startsWith('memory://')) mkdirSync(target, { recursive: true });
+    const pglite = await PGlite.create(target, {
+      parsers: { 20: (v: string) => Number(v), 1082: (v: string) => v },
+    });
+    const db = new Kysely<Database>({ dialect: new PGliteDialect(pglite) });
+    const inTrx = new AsyncLocalStorage<true>();
+
+    async function copyChunks(table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number> {
+      const statement = copySql(table, columns, `'/dev/blob'`);
+      let parts: string[] = [];
+      let bytes = 0;
+      let count = 0;
+      const flush = async () => {
+        if (parts.length === 0) return;
+        await pglite.query(statement, [], { blob: new Blob(parts) });
+        parts = [];
+        bytes = 0;
+      };
+      for await (const row of eachRow(rows)) {
+        const line = copyLine(row);
+        parts.push(line);
+        bytes += line.length;
+        count++;
+        if (bytes >= PGLITE_CHUNK_BYTES) await flush();
+      }
+      await flush();
+      return count;
+    }
+
+    const store: Store = {
+      db,
+      engine: 'pglite',
+      target,
+      async copyRows(table, columns, rows) {
+        if (inTrx.getStore()) return copyChunks(table, columns, rows);
+        // own transaction, holding the dialect's single connection so no other query interleaves
+        return db.transaction().execute(() => copyChunks(table, columns, rows));
+      },
+      transaction(fn) {
+        return db.transaction().execute((trx) => inTrx.run(true, () => fn(trx)));
+      },
+      async close() {
+        await db.destroy();
+      },
+    };
+    if (opts.migrate !== false) {
+      try {
+        await migrateToLatest(db);
+      } catch (e) {
+        await db.destroy();
+        throw e;
+      }
+    }
+    return store;
+  })();
+}
+
+const pgTypes = {
+  getTypeParser(oid: number, format?: 'text' | 'binary') {
+    if (oid === 20) return (v: string) => Number(v);
+    if (oid === 1082) return (v: string) => v;
+    return pg.types.getTypeParser(oid, format);
+  },
+};
+
+/** A pool of exactly one checked-out client, so a Kysely instance runs on one connection. */
+function singleClientPool(client: pg.PoolClient): PostgresPool {
+  const wrapped: PostgresPoolClient = {
+    query: client.query.bind(client) as PostgresPoolClient['query'],
+    release() {},
+  };
+  return { connect: async () => wrapped, end: async () => {} };
+}
+
+async function copyOnClient(client: pg.PoolClient, table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number> {
+  const stream = client.query(copyFrom(copySql(table, columns, 'stdin')));
+  let count = 0;
+  let failed: Error | null = null;
+  const done = new Promise<void>((resolve, reject) => {
+    stream.on('finish', () => resolve());
+    stream.on('error', (e: Error) => {
+      failed = e;
+      reject(e);
+    });
+  });
+  done.catch(() => {});
+  try {
+    let buf = '';
+    for await (const row of eachRow(rows)) {
+      if (failed) break;
+      buf += copyLine(row);
+      count++;
+      if (buf.length >= 256 * 1024) {
+        const ok = stream.write(buf);
+        buf = '';
+        if (!ok) await new Promise<void>((r) => { const on = () => { stream.off('error', on); r(); }; stream.once('drain', on); stream.once('error', on); });
+      }
+    }
+    if (!failed) {
+      if (buf) stream.write(buf);
+      stream.end();
+    }
+  } catch (e) {
+    // the rows' source failed: abort the COPY so the server discards what it received
+    stream.destroy(e as Error);
+    await done.catch(() => {});
+    throw e;
+  }
+  await done;
+  return count;
+}
+
+async function openServer(target: string, opts: OpenStoreOptions): Promise<Store> {
+  const pool = new pg.Pool({ connectionString: target, types: pgTypes, max: 4 });
+  const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
+  const current = new AsyncLocalStorage<pg.PoolClient>();
+
+  const store: Store = {
+    db,
+    engine: 'postgres',
+    target,
+    async copyRows(table, columns, rows) {
+      const client = current.getStore();
+      if (client) return copyOnClient(client, table, columns, rows);
+      const own = await pool.connect();
+      try {
+        return await copyOnClient(own, table, columns, rows);
+      } finally {
+        own.release();
+      }
+    },
+    async transaction(fn) {
+      const client = await pool.connect();
+      const trx = new Kysely<Database>({ dialect: new PostgresDialect({ pool: singleClientPool(client) }) });
+      let broken = false;
+      try {
+        await client.query('begin');
+        const result = await current.run(client, () => fn(trx));
+        await client.query('commit');
+        return result;
+      } catch (e) {
+        await client.query('rollback').catch(() => {
+          broken = true;
+        });
+        throw e;
+      } finally {
+        client.release(broken);
+      }
+    },
+    async close() {
+      await db.destroy();
+    },
+  };
+  if (opts.migrate !== false) {
+    try {
+      await migrateToLatest(db);
+    } catch (e) {
+      await db.destroy();
+      throw e;
+    }
+  }
+  return store;
+}
+
+/** Opens (and by default migrates) the store at `target`. */
+export async function openStore(target: string, opts: OpenStoreOptions = {}): Promise<Store> {
+  if (isServerTarget(target)) return openServer(target, opts);
+  return openPglite(target, opts);
+}
+
+/** True when the database answers (used by health checks). */
+export async function ping(store: Store): Promise<boolean> {
+  const r = await sql<{ one: number }>`select 1 as one`.execute(store.db);
+  return r.rows[0]?.one === 1;
+}

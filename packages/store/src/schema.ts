@@ -1,0 +1,148 @@
+/**
+ * Typed schema of the raw tables (written by ingest, read by every later stage) and the full
+ * `Database` interface that kysely checks queries against. The results tables are declared in
+ * `schema-results.ts`. Column units are in the names; curves are stored in canonical units
+ * (N, mm, s, MPa, mm/mm).
+ *
+ * Dates (`date` columns) are read as 'YYYY-MM-DD' strings and int8 ids as numbers on both
+ * engines (see open-store.ts).
+ */
+import type { ColumnType, Generated, Insertable, Selectable } from 'kysely';
+import type { ResultTables } from './schema-results.ts';
+
+type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+/** jsonb: written as a JSON string or value, read back as a parsed value. */
+type Json = ColumnType<unknown, string, string>;
+type Float8Array = ColumnType<number[] | null, number[] | string | null, number[] | string | null>;
+
+export type SpecimenShapeCode = 'round' | 'flat' | 'area';
+export type YieldDefinitionCode = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
+export type RunStatus = 'running' | 'completed' | 'failed';
+
+/** One row per distinct file content (manifests, curve files, column maps), keyed by SHA-256. */
+export interface SourceFilesTable {
+  id: Generated<number>;
+  sha256: string;
+  /** path as given on the first ingest that saw this content */
+  name: string;
+  size_bytes: number;
+  received_at: Generated<Date>;
+}
+
+export interface IngestRunsTable {
+  id: Generated<number>;
+  started_at: Generated<Date>;
+  finished_at: Timestamp | null;
+  settings: Json;
+  code_version: string;
+  status: ColumnType<RunStatus, RunStatus | undefined, RunStatus>;
+  accepted: ColumnType<number, number | undefined, number>;
+  duplicates: ColumnType<number, number | undefined, number>;
+  replaced: ColumnType<number, number | undefined, number>;
+  rejected: ColumnType<number, number | undefined, number>;
+}
+
+export interface GradesTable {
+  id: Generated<number>;
+  code: string;
+}
+
+export interface SuppliersTable {
+  id: Generated<number>;
+  name: string;
+}
+
+export interface HeatsTable {
+  id: Generated<number>;
+  supplier_id: number;
+  code: string;
+}
+
+/**
+ * One row per stored version of a test. Identity is (lab, test_id); exactly one version per
+ * identity is current (`is_current`), older versions stay as history after a replace.
+ */
+export interface TestsTable {
+  id: Generated<number>;
+  lab: string;
+  test_id: string;
+  version: number;
+  is_current: boolean;
+  superseded_at: Timestamp | null;
+  grade_id: number;
+  supplier_id: number;
+  heat_id: number | null;
+  tested_on: ColumnType<string, string, string>;
+  shape: SpecimenShapeCode | null;
+  diameter_mm: number | null;
+  thickness_mm: number | null;
+  width_mm: number | null;
+  /** S0, from the shape or given */
+  area_mm2: number | null;
+  gauge_length_mm: number | null;
+  orientation: string | null;
+  temperature_c: number | null;
+  /** SHA-256 of the canonical record plus the curve file's SHA-256 */
+  content_sha256: string;
+  manifest_sha256: string;
+  manifest_line: number;
+  run_id: number;
+  created_at: Generated<Date>;
+}
+
+/** One row per test version that has a curve; channels absent from the file are NULL. */
+export interface CurvesTable {
+  test_row_id: number;
+  n_points: number;
+  time_s: Float8Array;
+  force_n: Float8Array;
+  extension_mm: Float8Array;
+  crosshead_mm: Float8Array;
+  stress_mpa: Float8Array;
+  strain: Float8Array;
+  source_sha256: string;
+  /** curve file path relative to its manifest */
+  source_path: string;
+}
+
+/** Summary values as given (certificates, or beside a curve). */
+export interface SummaryRecordsTable {
+  test_row_id: number;
+  yield_mpa: number | null;
+  yield_definition: YieldDefinitionCode | null;
+  tensile_mpa: number | null;
+  uniform_elongation_pct: number | null;
+  elongation_pct: number | null;
+}
+
+/** A rejected input with its location; `line`/`col` are 1-based, 0 for the whole file. */
+export interface RejectionsTable {
+  id: Generated<number>;
+  run_id: number;
+  file: string;
+  line: number;
+  col: number;
+  code: string;
+  message: string;
+  created_at: Generated<Date>;
+}
+
+export interface RawTables {
+  source_files: SourceFilesTable;
+  ingest_runs: IngestRunsTable;
+  grades: GradesTable;
+  suppliers: SuppliersTable;
+  heats: HeatsTable;
+  tests: TestsTable;
+  curves: CurvesTable;
+  summary_records: SummaryRecordsTable;
+  rejections: RejectionsTable;
+}
+
+export interface Database extends RawTables, ResultTables {}
+
+export type TestRow = Selectable<TestsTable>;
+export type NewTest = Insertable<TestsTable>;
+export type CurveRow = Selectable<CurvesTable>;
+export type SummaryRow = Selectable<SummaryRecordsTable>;
+export type RejectionRow = Selectable<RejectionsTable>;
