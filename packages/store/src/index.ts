@@ -1,5 +1,5 @@
 export * from './schema.ts';
-export type { ResultTables } from './schema-results.ts';
+export type { ResultTables, StageName, TestResultsTable, GroupResultsTable, StageRunsTable } from './schema-results.ts';
 export { openStore, isServerTarget, ping } from './open-store.ts';
 export type { Store, Engine, OpenStoreOptions } from './open-store.ts';
 export { migrateToLatest, MigrationError, MIGRATION_FOLDER } from './migrate.ts';
