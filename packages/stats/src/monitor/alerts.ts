@@ -6,7 +6,11 @@
  *   cusum-low, cusum-high, change-point-down, change-point-up, capability-margin.
  * magnitude_unit is 'sd' (multiples of the baseline sigma) or 'property-units'; every alert
  * also carries magnitude_sd so alerts can be ranked on one scale.
+ * Episodes of one rule separated by at most `mergeGap` unflagged points are joined into one
+ * (our convention, default 5): a statistic hovering at its limit then raises one alert.
  */
+
+export const DEFAULT_ALERT_MERGE_GAP = 5;
 
 export interface Alert {
   rule: string;
@@ -24,8 +28,11 @@ export interface Alert {
   detail: string;
 }
 
-/** Inclusive [start, end] index ranges of consecutive nonzero flags. */
-export function flagEpisodes(flags: ArrayLike<number | boolean>): Array<[number, number]> {
+/**
+ * Inclusive [start, end] index ranges of consecutive nonzero flags; ranges separated by at
+ * most `mergeGap` unflagged points are joined (0: no joining).
+ */
+export function flagEpisodes(flags: ArrayLike<number | boolean>, mergeGap = 0): Array<[number, number]> {
   const out: Array<[number, number]> = [];
   let start = -1;
   for (let i = 0; i < flags.length; i++) {
@@ -37,7 +44,14 @@ export function flagEpisodes(flags: ArrayLike<number | boolean>): Array<[number,
     }
   }
   if (start >= 0) out.push([start, flags.length - 1]);
-  return out;
+  if (mergeGap <= 0 || out.length < 2) return out;
+  const merged: Array<[number, number]> = [out[0]];
+  for (let j = 1; j < out.length; j++) {
+    const prev = merged[merged.length - 1];
+    if (out[j][0] - prev[1] - 1 <= mergeGap) prev[1] = out[j][1];
+    else merged.push(out[j]);
+  }
+  return merged;
 }
 
 /** Index in [a, b] where score is most extreme in the given direction (−1: smallest, +1: largest). */

@@ -11,7 +11,6 @@
  */
 import tQuantile from '@stdlib/stats-base-dists-t-quantile';
 import { createMonitorRandom } from './random.ts';
-import { segmentRss, segmentSums } from './change-points.ts';
 
 export interface ChangePoint {
   /** Index of the first point after the change. */
@@ -65,21 +64,32 @@ function quantileSorted(sorted: ArrayLike<number>, p: number): number {
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
 }
 
-/** Least-squares location of one change inside values[a..b−1], each side at least m points. */
-export function locateSingleChange(values: ArrayLike<number>, a: number, b: number, m: number): number {
-  const sub = new Float64Array(b - a);
-  for (let i = a; i < b; i++) sub[i - a] = values[i];
-  const s = segmentSums(sub);
-  let best = Infinity;
+/**
+ * Least-squares location of one change inside values[a..b−1], each side at least m points:
+ * the index of the first point after the change, or −1 if the stretch is shorter than 2m.
+ * `scratch` (length ≥ b − a + 1) avoids allocation in bootstrap loops.
+ */
+export function locateSingleChange(values: ArrayLike<number>, a: number, b: number, m: number, scratch?: Float64Array): number {
+  const len = b - a;
+  if (len < 2 * m) return -1;
+  const s1 = scratch && scratch.length > len ? scratch : new Float64Array(len + 1);
+  const c0 = values[a];
+  s1[0] = 0;
+  for (let i = 0; i < len; i++) s1[i + 1] = s1[i] + (values[a + i] - c0);
+  // RSS(0,τ) + RSS(τ,len) = Σy² − S(τ)²/τ − (S(len) − S(τ))²/(len − τ): maximize the last two.
+  const total = s1[len];
+  let best = -Infinity;
   let arg = -1;
-  for (let tau = m; tau <= sub.length - m; tau++) {
-    const c = segmentRss(s, 0, tau) + segmentRss(s, tau, sub.length);
-    if (c < best) {
-      best = c;
+  for (let tau = m; tau <= len - m; tau++) {
+    const st = s1[tau];
+    const rest = total - st;
+    const v = (st * st) / tau + (rest * rest) / (len - tau);
+    if (v > best) {
+      best = v;
       arg = tau;
     }
   }
-  return arg < 0 ? -1 : a + arg;
+  return a + arg;
 }
 
 export function describeChangePoints(
@@ -121,9 +131,10 @@ export function describeChangePoints(
       }
       const star = new Float64Array(b - a);
       const taus = new Float64Array(B);
+      const scratch = new Float64Array(star.length + 1);
       for (let r = 0; r < B; r++) {
         for (let i = 0; i < star.length; i++) star[i] = fitted[i] + resid[rng.index(resid.length)];
-        taus[r] = a + locateSingleChange(star, 0, star.length, m);
+        taus[r] = a + locateSingleChange(star, 0, star.length, m, scratch);
       }
       taus.sort();
       const lo = Math.round(quantileSorted(taus, (1 - level) / 2));

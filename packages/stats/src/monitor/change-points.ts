@@ -106,6 +106,7 @@ export function peltMeanChange(values: ArrayLike<number>, opts: PeltOptions = {}
   // optimal for t' < t + m (where t itself is not yet a feasible change), so it is dropped at t + m.
   let cand: number[] = [0];
   let dropAt: number[] = [Infinity];
+  let vals = new Float64Array(16);
   for (let t = m; t <= n; t++) {
     const fresh = t - m;
     if (fresh >= m) {
@@ -114,7 +115,7 @@ export function peltMeanChange(values: ArrayLike<number>, opts: PeltOptions = {}
     }
     let best = Infinity;
     let arg = -1;
-    const vals = new Float64Array(cand.length);
+    if (vals.length < cand.length) vals = new Float64Array(2 * cand.length);
     for (let j = 0; j < cand.length; j++) {
       const tau = cand[j];
       const v = F[tau] + segmentRss(sums, tau, t) * inv + beta;

@@ -3,9 +3,9 @@
  * EWMA and tabular CUSUM on values standardized by the baseline (z = (x − x̄₀)/σ̂₀ with
  * σ̂₀ = MR̄₀/1.128), PELT change points in the mean with shift intervals, rolling capability
  * against the grade minimum, and alerts. Each piece names its source in its own file.
- * Defaults (stated): baseline = first 30 points (all if fewer); EWMA λ = 0.1, L = 2.7 with
- * asymptotic limits (Lucas & Saccucci 1990, ARL0 ≈ 500); CUSUM k = 0.5, h = 5 (Montgomery,
- * ARL0 ≈ 465); change points: penalty 2·ln n, minimum segment 5, 199 bootstrap resamples;
+ * Defaults (stated): baseline = first 30 points (all if fewer); EWMA λ = 0.1, L = 2.814 with
+ * asymptotic limits (Lucas & Saccucci 1990, ARL0 ≈ 500, ARL 10.3 at 1σ); CUSUM k = 0.5, h = 5 (Montgomery,
+ * ARL0 ≈ 465); alert episodes of one rule ≤ 5 points apart joined; change points: penalty 2·ln n, minimum segment 5, 199 bootstrap resamples;
  * rolling window 30 (capability from 10 points on); capability alert below Cpk 1.33 (common
  * practice).
  * Units: values, limits, shifts in the property's units; z, EWMA, CUSUM and margins in SD.
@@ -24,7 +24,7 @@ import { DEFAULT_CUSUM, cusumChart } from './cusum.ts';
 import { DEFAULT_MIN_SEGMENT, peltMeanChange } from './change-points.ts';
 import { describeChangePoints } from './change-point-uncertainty.ts';
 import { rollingCapability } from './capability.ts';
-import { extremeIndex, flagEpisodes } from './alerts.ts';
+import { DEFAULT_ALERT_MERGE_GAP, extremeIndex, flagEpisodes } from './alerts.ts';
 
 export interface ChartPoint {
   index: number;
@@ -167,6 +167,7 @@ export function monitorSeries(points: readonly SeriesPoint[], opts: MonitorOptio
 
   const sigma = b.sigma;
   const alerts = result.alerts;
+  const gap = opts.alertMergeGap ?? DEFAULT_ALERT_MERGE_GAP;
   const push = (rule: string, a: number, e: number, magnitudeSd: number, unit: 'sd' | 'property-units', magnitude: number, detail: string, testsFrom = a) => {
     alerts.push({
       rule,
@@ -181,34 +182,34 @@ export function monitorSeries(points: readonly SeriesPoint[], opts: MonitorOptio
       detail,
     });
   };
-  for (const [a, e] of flagEpisodes(below)) {
+  for (const [a, e] of flagEpisodes(below, gap)) {
     const i = extremeIndex((q) => z[q], a, e, -1);
     push('individuals-below-lcl', a, e, z[i], 'sd', z[i], 'most extreme (value − centre)/sigma in the episode');
   }
-  for (const [a, e] of flagEpisodes(above)) {
+  for (const [a, e] of flagEpisodes(above, gap)) {
     const i = extremeIndex((q) => z[q], a, e, 1);
     push('individuals-above-ucl', a, e, z[i], 'sd', z[i], 'most extreme (value − centre)/sigma in the episode');
   }
-  for (const [a, e] of flagEpisodes(mrOut)) {
+  for (const [a, e] of flagEpisodes(mrOut, gap)) {
     const i = extremeIndex((q) => mr[q] ?? 0, a, e, 1);
     const m = (mr[i] ?? 0) / sigma;
     push('mr-above-ucl', a, e, m, 'sd', m, 'largest moving range / sigma in the episode', Math.max(0, a - 1));
   }
-  for (const [a, e] of flagEpisodes(ew.outLow)) {
+  for (const [a, e] of flagEpisodes(ew.outLow, gap)) {
     const i = extremeIndex((q) => ew.ewma[q], a, e, -1);
     push('ewma-low', a, e, ew.ewma[i], 'sd', ew.ewma[i], 'lowest EWMA of z in the episode');
   }
-  for (const [a, e] of flagEpisodes(ew.outHigh)) {
+  for (const [a, e] of flagEpisodes(ew.outHigh, gap)) {
     const i = extremeIndex((q) => ew.ewma[q], a, e, 1);
     push('ewma-high', a, e, ew.ewma[i], 'sd', ew.ewma[i], 'highest EWMA of z in the episode');
   }
   // CUSUM: Montgomery's estimate of the new mean at the first signal, k + C/N; the tests
   // involved start where the sum last left zero.
-  for (const [a, e] of flagEpisodes(cu.outLow)) {
+  for (const [a, e] of flagEpisodes(cu.outLow, gap)) {
     const est = -(cusumP.k + cu.low[a] / cu.nLow[a]);
     push('cusum-low', a, e, est, 'sd', est, 'estimated mean of z since the sum left zero (Montgomery: k + C/N)', a - cu.nLow[a] + 1);
   }
-  for (const [a, e] of flagEpisodes(cu.outHigh)) {
+  for (const [a, e] of flagEpisodes(cu.outHigh, gap)) {
     const est = cusumP.k + cu.high[a] / cu.nHigh[a];
     push('cusum-high', a, e, est, 'sd', est, 'estimated mean of z since the sum left zero (Montgomery: k + C/N)', a - cu.nHigh[a] + 1);
   }
@@ -243,7 +244,7 @@ function finishAlerts(result: SeriesMonitor, values: Float64Array, ids: string[]
       low[i] = c !== null && c < minCpk ? 1 : 0;
     }
     const window = opts.rollingWindow ?? 30;
-    for (const [a, e] of flagEpisodes(low)) {
+    for (const [a, e] of flagEpisodes(low, opts.alertMergeGap ?? DEFAULT_ALERT_MERGE_GAP)) {
       const i = extremeIndex((q) => cap[q].margin_sd ?? Infinity, a, e, -1);
       const m = cap[i].margin_sd ?? 0;
       result.alerts.push({

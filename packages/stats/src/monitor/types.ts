@@ -52,7 +52,7 @@ export interface ChangePointOptions {
 
 export interface MonitorOptions {
   baseline?: BaselineSpec;
-  /** Default λ = 0.1, L = 2.7 (Lucas & Saccucci 1990: ARL0 ≈ 500). */
+  /** Default λ = 0.1, L = 2.814 (Lucas & Saccucci 1990: ARL0 ≈ 500); λ = 0.1, L = 2.7 gives ARL0 ≈ 369. */
   ewma?: EwmaParams;
   /** 'asymptotic' (default; the limits behind the published ARL tables) or 'exact' (time-varying). */
   ewmaLimits?: 'asymptotic' | 'exact';
@@ -67,6 +67,8 @@ export interface MonitorOptions {
   /** Rolling Cpk below this raises 'capability-margin' (default 1.33, common practice). */
   minCpk?: number;
   changePoint?: ChangePointOptions;
+  /** Episodes of one alert rule at most this many points apart are joined (default 5). */
+  alertMergeGap?: number;
 }
 
 /** An error as a value: a code, a message, and where it applies (index in the series). */
