@@ -1,0 +1,154 @@
+/**
+ * Discontinuous yielding (ISO 6892-1): upper yield strength ReH (the stress at the first peak
+ * before the first decrease in force), lower yield strength ReL (the lowest stress during
+ * plastic yielding, ignoring any initial transient effect) and the yield-point extension (from
+ * the start of yielding to the start of uniform work hardening).
+ *
+ * Detection (our own rule, O(points)): a running-maximum point p is the yield point when, over
+ * the next 0.3 % strain, the stress never rises more than a tolerance (0.3 % of σp or 4× the
+ * noise) above σp, and either (a) falls at least max(0.5 % σp, 6× noise) below it — an upper
+ * yield point — or (b) stays flat and afterwards rises again at least twice the tolerance over
+ * 0.3 % strain, which a continuously (concavely) hardening curve cannot do. The search stops at
+ * maximum force, so a curve whose upper yield is its maximum force counts as continuous.
+ *
+ * Transient: the descent from ReH to the first minimum and the recovery up to the plateau's
+ * median level (the first minimum is ignored unless it is the only one, as ISO 6892-1 says of
+ * the initial transient; the median-level rule is ours). ReL is the lowest value of a 5-point
+ * moving average (raw values for noise below 0.1 % of ReH) between the transient and the end of
+ * the plateau. The plateau ends at the last point not above median + 2·(median − lower quartile)
+ * of the plateau stress (at least the tolerance), found by three rounds of trimming the rising
+ * end; uniform work hardening starts where a line through the first rising points meets the
+ * plateau's median level (a tangent construction; ours).
+ *
+ * In: engineering strain (mm/mm), stress (MPa), the index of maximum force, the noise (MPa).
+ * Out: indices and values, or null when the curve yields continuously.
+ */
+export interface DiscontinuousYield {
+  rehIndex: number;
+  rehMpa: number;
+  relIndex: number;
+  relMpa: number;
+  /** index of the last point of the yield-point plateau */
+  plateauEndIndex: number;
+  /** strain where uniform work hardening starts (same origin as the input strain) */
+  plateauEndStrain: number;
+  /** yield-point extension, mm/mm */
+  ypeStrain: number;
+  kind: 'upper_yield_point' | 'flat_plateau';
+}
+
+const SPAN = 0.003;
+
+/** sorts in place; returns the median and the lower quartile */
+function medianAndQuartile(values: Float64Array): [number, number] {
+  values.sort();
+  const m = values.length >> 1;
+  const med = values.length % 2 ? values[m] : (values[m - 1] + values[m]) / 2;
+  return [med, values[Math.floor((values.length - 1) / 4)]];
+}
+
+export function findDiscontinuousYield(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number): DiscontinuousYield | null {
+  const rm = stressMpa[imax];
+  let runMax = -Infinity;
+  for (let p = 0; p < imax; p++) {
+    const sp = stressMpa[p];
+    if (sp <= runMax) continue;
+    runMax = sp;
+    if (sp < 0.2 * rm) continue;
+    const tol = Math.max(0.003 * sp, 4 * noiseMpa);
+    const drop = Math.max(0.005 * sp, 6 * noiseMpa);
+    let j = p + 1;
+    let min = sp;
+    let failed = false;
+    while (j <= imax && strain[j] <= strain[p] + SPAN) {
+      if (stressMpa[j] > sp + tol) { failed = true; break; }
+      if (stressMpa[j] < min) min = stressMpa[j];
+      j++;
+    }
+    if (failed || j > imax) continue;
+    let kind: DiscontinuousYield['kind'];
+    if (min <= sp - drop) kind = 'upper_yield_point';
+    else {
+      let q = j;
+      while (q <= imax && stressMpa[q] <= sp + tol) q++;
+      if (q > imax) continue;
+      let r = q;
+      while (r <= imax && strain[r] < strain[q] + SPAN) r++;
+      if (r > imax || stressMpa[r] - stressMpa[q] < 2 * tol) continue;
+      kind = 'flat_plateau';
+    }
+    // ReH: the top of the peak, before the stress first falls by the drop threshold
+    let top = p;
+    for (let k = p + 1; k < j && stressMpa[k] >= sp - drop; k++) if (stressMpa[k] > stressMpa[top]) top = k;
+    return describePlateau(strain, stressMpa, top, imax, Math.max(0.003 * stressMpa[top], 4 * noiseMpa), noiseMpa, kind);
+  }
+  return null;
+}
+
+function describePlateau(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, p: number, imax: number, tol: number, noiseMpa: number, kind: DiscontinuousYield['kind']): DiscontinuousYield {
+  const sp = stressMpa[p];
+  let q = p + 1;
+  while (q < imax && stressMpa[q] <= sp + tol) q++;
+  // first local minimum after the peak (hysteresis against noise)
+  const h = Math.max(3 * noiseMpa, 0.002 * sp);
+  let t = p + 1;
+  for (let j = p + 1; j < q; j++) {
+    if (stressMpa[j] < stressMpa[t]) t = j;
+    else if (stressMpa[j] > stressMpa[t] + h) break;
+  }
+  // plateau level: median of (t, end), trimming the rising end three times
+  let end = q;
+  let level = stressMpa[t];
+  let spread = tol;
+  for (let round = 0; round < 3 && end - t > 2; round++) {
+    const vals = Float64Array.from({ length: end - t - 1 }, (_, k) => stressMpa[t + 1 + k]);
+    const [med, q25] = medianAndQuartile(vals);
+    level = med;
+    spread = Math.max(tol, 2 * (med - q25));
+    let e = t + 1;
+    while (e < end && stressMpa[e] <= level + 2 * spread) e++;
+    if (e === end) break;
+    end = e;
+  }
+  let plateauEnd = t;
+  for (let j = end - 1; j > t; j--) if (stressMpa[j] <= level + spread) { plateauEnd = j; break; }
+  // start of work hardening: the line through the first rising points (above the plateau band, up
+  // to 4 bands higher) meets the plateau level; without such points, the last plateau point
+  let endStrain = strain[plateauEnd];
+  {
+    let k = plateauEnd + 1;
+    while (k < imax && stressMpa[k] <= level + spread) k++;
+    let m = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
+    for (let j = k; j <= imax && stressMpa[j] <= level + 5 * spread; j++) {
+      const x = strain[j], y = stressMpa[j];
+      m++; sx += x; sy += y; sxx += x * x; sxy += x * y;
+    }
+    const v = sxx - (sx * sx) / m;
+    if (m >= 3 && v > 0) {
+      const a = (sxy - (sx * sy) / m) / v;
+      const b = (sy - a * sx) / m;
+      if (a > 0) endStrain = Math.min(strain[plateauEnd], Math.max(strain[p], (level - b) / a));
+    }
+  }
+  // end of the transient: recovery up to the plateau level
+  let trEnd = t + 1;
+  while (trEnd <= plateauEnd && stressMpa[trEnd] < level) trEnd++;
+  const smooth = noiseMpa > 1e-3 * sp;
+  const at = (j: number): number => {
+    if (!smooth) return stressMpa[j];
+    const a = Math.max(p + 1, j - 2), b = Math.min(imax, j + 2);
+    let s = 0;
+    for (let k = a; k <= b; k++) s += stressMpa[k];
+    return s / (b - a + 1);
+  };
+  let relIndex = t;
+  let rel = at(t);
+  if (trEnd <= plateauEnd) {
+    rel = Infinity;
+    for (let j = trEnd; j <= plateauEnd; j++) { const v = at(j); if (v < rel) { rel = v; relIndex = j; } }
+  }
+  return {
+    rehIndex: p, rehMpa: sp, relIndex, relMpa: rel, plateauEndIndex: plateauEnd, plateauEndStrain: endStrain,
+    ypeStrain: Math.max(0, endStrain - strain[p]), kind,
+  };
+}
