@@ -1,0 +1,193 @@
+/**
+ * Reads one curve file, streaming (csv-parse over a hashing, UTF-8-checking scanner), into
+ * channels in canonical units (s, N, mm, MPa, mm/mm) with NIST SP 811 factors from
+ * @fractile/curves. Our format: header `name[unit]` cells (time, force, extension, crosshead,
+ * stress, strain), `#` comment lines, comma delimiter, decimal point; anything else through a
+ * column map. Unknown columns are ignored.
+ *
+ * Rejections (with file, line, column): not_utf8, malformed_csv, missing_column (mapped column not
+ * in the header), unknown_unit, missing_channel (neither force+extension nor stress+strain),
+ * missing_value / not_a_number / not_finite (a cell), time_not_monotonic (time decreases),
+ * curve_too_short (fewer than MIN_CURVE_POINTS points, which includes an empty or truncated file).
+ */
+import { createReadStream } from 'node:fs';
+import { pipeline } from 'node:stream/promises';
+import { parse } from 'csv-parse';
+import type { UnitDef } from '@fractile/curves';
+import { unitFor } from '@fractile/curves';
+import type { ChannelName, ColumnMap } from './column-map.ts';
+import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
+import { parseCell, splitHeader } from './parse-cell.ts';
+import type { Rejection } from './rejection.ts';
+import { reject } from './rejection.ts';
+import { NotUtf8Error, SourceScanner } from './source-scanner.ts';
+
+export const MIN_CURVE_POINTS = 20;
+
+export interface CurveChannels {
+  nPoints: number;
+  time: Float64Array | null;
+  force: Float64Array | null;
+  extension: Float64Array | null;
+  crosshead: Float64Array | null;
+  stress: Float64Array | null;
+  strain: Float64Array | null;
+}
+
+export type CurveReadResult = { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels } | { ok: false; rejection: Rejection };
+
+/** A Float64Array that grows by doubling. */
+class Growable {
+  buf = new Float64Array(1024);
+  n = 0;
+  push(v: number): void {
+    if (this.n === this.buf.length) {
+      const next = new Float64Array(this.buf.length * 2);
+      next.set(this.buf);
+      this.buf = next;
+    }
+    this.buf[this.n++] = v;
+  }
+  take(): Float64Array {
+    return this.buf.slice(0, this.n);
+  }
+}
+
+interface Bound {
+  channel: ChannelName;
+  index: number; // 0-based cell index
+  def: UnitDef;
+  values: Growable;
+}
+
+class Stop extends Error {
+  constructor(readonly rejection: Rejection) {
+    super(rejection.message);
+  }
+}
+
+function bindDefault(file: string, line: number, header: string[]): Bound[] {
+  const bound: Bound[] = [];
+  header.forEach((cell, i) => {
+    const { name, unit } = splitHeader(cell);
+    if (!(CHANNELS as readonly string[]).includes(name)) return;
+    const channel = name as ChannelName;
+    if (bound.some((b) => b.channel === channel)) throw new Stop(reject(file, line, i + 1, 'malformed_csv', `channel "${channel}" appears twice in the header`));
+    if (unit === null) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `channel "${channel}" has no unit: write ${channel}[unit]`));
+    const def = unitFor(CHANNEL_QUANTITY[channel], unit);
+    if (!def) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `unknown unit "${unit}" for ${channel} (a ${CHANNEL_QUANTITY[channel]})`));
+    bound.push({ channel, index: i, def, values: new Growable() });
+  });
+  return bound;
+}
+
+function bindMapped(file: string, line: number, header: string[] | null, map: ColumnMap): Bound[] {
+  const bound: Bound[] = [];
+  for (const channel of CHANNELS) {
+    const spec = map.channels[channel];
+    if (!spec) continue;
+    let index: number;
+    if (typeof spec.column === 'number') {
+      index = spec.column - 1;
+      if (header && index >= header.length) throw new Stop(reject(file, line, 0, 'missing_column', `column ${spec.column} (${channel}) is beyond the ${header.length} columns of the header`));
+    } else {
+      const name = spec.column.trim();
+      index = header ? header.findIndex((h) => h.trim() === name) : -1;
+      if (index < 0 && header) index = header.findIndex((h) => h.trim().toLowerCase() === name.toLowerCase());
+      if (index < 0) throw new Stop(reject(file, line, 0, 'missing_column', `column "${spec.column}" (${channel}) is not in the header`));
+    }
+    bound.push({ channel, index, def: spec.def, values: new Growable() });
+  }
+  return bound;
+}
+
+function checkChannels(file: string, line: number, bound: Bound[]): void {
+  const has = (c: ChannelName) => bound.some((b) => b.channel === c);
+  if ((has('force') && has('extension')) || (has('stress') && has('strain'))) return;
+  const found = bound.map((b) => b.channel).join(', ') || 'none';
+  const why = has('force') ? 'force without extension, and no stress and strain' : has('stress') || has('strain') ? 'stress and strain must both be given' : 'no force and extension, and no stress and strain';
+  throw new Stop(reject(file, line, 0, 'missing_channel', `${why} (channels found: ${found})`));
+}
+
+/**
+ * Reads and validates the curve file at `absPath`; `displayPath` names it in rejections.
+ */
+export async function readCurveFile(absPath: string, displayPath: string, map: ColumnMap | null): Promise<CurveReadResult> {
+  const file = displayPath;
+  const decimal = map?.decimal ?? '.';
+  const skip = map ? (map.headerRow > 0 ? map.headerRow - 1 : map.dataRow - 1) : 0;
+  const scanner = new SourceScanner(skip);
+  const parser = parse({
+    delimiter: map?.delimiter ?? ',',
+    comment: (map ? map.commentPrefix : '#') ?? undefined,
+    comment_no_infix: true,
+    relax_column_count: true,
+    skip_empty_lines: true,
+    trim: true,
+    info: true,
+  });
+  let bound: Bound[] | null = null;
+  const headerWanted = !(map && map.headerRow === 0);
+  let headerLine = 0;
+  let lastLine = 0;
+  let n = 0;
+  let time: Bound | undefined;
+  let prevTime = -Infinity;
+
+  const consume = async () => {
+    for await (const item of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
+      const line = item.info.lines + skip;
+      const rec = item.record;
+      if (!bound) {
+        headerLine = line;
+        bound = map ? bindMapped(file, line, rec, map) : bindDefault(file, line, rec);
+        checkChannels(file, line, bound);
+        time = bound.find((b) => b.channel === 'time');
+        continue;
+      }
+      if (map && line < map.dataRow) continue;
+      lastLine = line;
+      for (const b of bound) {
+        const r = parseCell(rec[b.index], decimal);
+        if (!r.ok) {
+          const what = r.code === 'missing_value' ? (rec.length <= b.index ? 'row ends before this column (truncated line?)' : 'empty cell') : r.code === 'not_finite' ? `not a finite number: "${rec[b.index]}"` : `not a number: "${rec[b.index]}"`;
+          throw new Stop(reject(file, line, b.index + 1, r.code, `${b.channel}: ${what}`));
+        }
+        b.values.push(r.value * b.def.factor + b.def.offset);
+      }
+      if (time) {
+        const t = time.values.buf[n];
+        if (t < prevTime) throw new Stop(reject(file, line, time.index + 1, 'time_not_monotonic', `time decreases from ${prevTime} s to ${t} s`));
+        prevTime = t;
+      }
+      n++;
+    }
+  };
+
+  try {
+    if (!headerWanted) {
+      bound = bindMapped(file, 0, null, map!);
+      checkChannels(file, 0, bound);
+      time = bound.find((b) => b.channel === 'time');
+    }
+    await Promise.all([pipeline(createReadStream(absPath), scanner, parser), consume()]);
+  } catch (e) {
+    scanner.destroy();
+    parser.destroy();
+    if (e instanceof Stop) return { ok: false, rejection: e.rejection };
+    if (e instanceof NotUtf8Error) return { ok: false, rejection: reject(file, e.line, 0, 'not_utf8', e.message) };
+    const err = e as { code?: string; lines?: number; message?: string };
+    if (err.code === 'ENOENT' || err.code === 'EISDIR' || err.code === 'EACCES') return { ok: false, rejection: reject(file, 0, 0, err.code === 'ENOENT' ? 'missing_curve_file' : 'unreadable_file', `cannot read the curve file (${err.code})`) };
+    if (typeof err.code === 'string' && err.code.startsWith('CSV_')) return { ok: false, rejection: reject(file, (err.lines ?? 0) + skip, 0, 'malformed_csv', err.message ?? err.code) };
+    throw e;
+  }
+  if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };
+  if (n < MIN_CURVE_POINTS) return { ok: false, rejection: reject(file, lastLine || headerLine, 0, 'curve_too_short', `${n} points; a curve needs at least ${MIN_CURVE_POINTS}`) };
+  const get = (c: ChannelName) => (bound as Bound[]).find((b) => b.channel === c)?.values.take() ?? null;
+  return {
+    ok: true,
+    sha256: scanner.sha256,
+    sizeBytes: scanner.bytes,
+    channels: { nPoints: n, time: get('time'), force: get('force'), extension: get('extension'), crosshead: get('crosshead'), stress: get('stress'), strain: get('strain') },
+  };
+}

@@ -1,0 +1,13 @@
+export { ingestManifests } from './ingest-manifests.ts';
+export type { IngestOptions, IngestSummary, ManifestInput } from './ingest-manifests.ts';
+export { REJECTION_CODES, formatRejection, reject, RejectionError } from './rejection.ts';
+export type { Rejection, RejectionCode } from './rejection.ts';
+export { parseColumnMap, parseColumnMapText, CHANNELS } from './column-map.ts';
+export type { ColumnMap, ChannelName, ChannelSpec, MapResult } from './column-map.ts';
+export { readCurveFile, MIN_CURVE_POINTS } from './curve-reader.ts';
+export type { CurveChannels, CurveReadResult } from './curve-reader.ts';
+export { readManifest, scanFile, insideFolder, YIELD_DEFINITIONS } from './manifest-reader.ts';
+export type { ManifestRecord, ManifestItem, SummaryValues, YieldDefinition } from './manifest-reader.ts';
+export { parseCell, parseIsoDate, splitHeader } from './parse-cell.ts';
+export { contentHash } from './content-hash.ts';
+export { Utf8Checker, SourceScanner, NotUtf8Error } from './source-scanner.ts';
