@@ -8,3 +8,34 @@ export { normalToleranceFactor } from './tolerance-factor.ts';
 export { en1990Kn } from './en1990-fractile.ts';
 export { orderStatisticMinN, orderStatisticConfidence, orderStatisticRank } from './order-statistic-bound.ts';
 export { percentile } from './percentile.ts';
+export { normalLogCdf } from './special/normal.ts';
+export type { FitResult, ModelName } from './fit-types.ts';
+export { fitNormal, fitLognormal } from './fit-normal.ts';
+export { fitWeibull } from './fit-weibull.ts';
+export { andersonDarlingStatistic, andersonDarlingPNormal, andersonDarlingPWeibull, WEIBULL_AD_TABLE } from './anderson-darling.ts';
+export { normalLowerToleranceLimit, lognormalLowerToleranceLimit, weibullLowerToleranceLimit, SEV_INVERSE_INFORMATION } from './tolerance-limit.ts';
+export {
+  summarizeProperty,
+  modelCdf,
+  DEFAULT_LEVELS,
+  DEFAULT_PRIOR_V,
+  BEST_FIT_RULE,
+  MIN_N_FIT,
+  MIN_N_AD_P,
+  MIN_N_TOLERANCE,
+  MIN_N_WEIBULL_TOLERANCE,
+  MIN_N_EN1990_KNOWN,
+  MIN_N_EN1990_UNKNOWN,
+} from './summarize-property.ts';
+export type {
+  CharacteristicMethod,
+  CharacteristicValue,
+  SummaryLevel,
+  SummaryOptions,
+  Compliance,
+  FitSummary,
+  PropertySummary,
+} from './summarize-property.ts';
+export { correlationMatrices, MIN_N_CORRELATION } from './correlation.ts';
+export type { CorrelationMatrices } from './correlation.ts';
+export { isotonicNonDecreasing } from './isotonic.ts';

@@ -22,3 +22,13 @@ export function normalCdf(x: number): number {
 export function normalPdf(x: number): number {
   return Math.exp(-0.5 * x * x) / Math.sqrt(2 * Math.PI);
 }
+
+/**
+ * ln Φ(x), accurate in the far lower tail: direct for x > −35, else the asymptotic expansion
+ * ln Φ(x) = −x²/2 − ln(−x) − ½ ln 2π + ln(1 − 1/x² + 3/x⁴ − 15/x⁶ + 105/x⁸) (Abramowitz & Stegun 26.2.12).
+ */
+export function normalLogCdf(x: number): number {
+  if (x > -35) return Math.log(normalCdf(x));
+  const r = 1 / (x * x);
+  return -0.5 * x * x - Math.log(-x) - 0.5 * Math.log(2 * Math.PI) + Math.log1p(r * (-1 + r * (3 + r * (-15 + r * 105))));
+}
