@@ -103,7 +103,7 @@ export function writeProblemFiles(outDir: string, points: number, rng: Rng): Pro
   const dir = join(outDir, 'problems');
   mkdirSync(join(dir, 'curves'), { recursive: true });
   const grade = gradeDef('FX-360P');
-  const sim = simulateTest(grade, 400, 0, 0, { areaMm2: 250, gaugeLengthMm: 80, parallelLengthMm: 112 }, { withSignal: true, points: Math.max(points, 300), loop: false, removeExtensometer: false }, rng);
+  const sim = simulateTest(grade, 400, 0, 0, { areaMm2: 250, gaugeLengthMm: 80, parallelLengthMm: 112 }, { withSignal: true, points: Math.max(points, 400), loop: false, removeExtensometer: false }, rng);
   const meta = { testId: 'BRK-P', comments: COMMENTS, areaMm2: 250, gaugeLengthMm: 80, labName: '', testedOn: '' };
   const good = formatCurveCsv(sim.signal!, 'kn-mm', meta);
   const goodLines = good.trimEnd().split('\n');
