@@ -1,12 +1,14 @@
 // Design stage: characteristic true stress – plastic strain curves per group, idealizations,
 // engineering counterparts and generic CSV/JSON exports with provenance.
 export * from './types.ts';
+export { characteristicCurve, DesignInputError, type CharacteristicCurveInput } from './characteristic-curve.ts';
 export { lowerToleranceBound, type ToleranceBound, type ToleranceSpec } from './lower-tolerance-bound.ts';
 export { validityRange, type ValidityRange, type ValidityLimit } from './validity-range.ts';
 export { engineeringCounterpart } from './engineering-counterpart.ts';
 export { fitBilinearHardening, type BilinearFit } from './idealize-bilinear.ts';
 export { multilinearBreakpoints, type MultilinearPoints } from './idealize-multilinear.ts';
 export { fitRambergOsgoodPlastic, rambergOsgoodPlasticStrain, rambergOsgoodStressAtPlastic, RO_OFFSET, type RambergOsgoodFit } from './idealize-ramberg-osgood.ts';
+export { fitLaw, extrapolateJoined, type FittedLaw } from './extrapolate-law.ts';
 export { DESIGN_CAUTION, designProvenance, designSettings, testIdsSha256 } from './provenance.ts';
 export {
   designCurveToCsv,

@@ -1,0 +1,134 @@
+// CSV and JSON exports of characteristic curves: round trips, provenance, caution; sources beside each check.
+import { describe, expect, it } from 'vitest';
+import {
+  characteristicCurve,
+  CURVE_CSV_COLUMNS,
+  DEFAULT_DESIGN_OPTIONS,
+  DESIGN_CAUTION,
+  designCurvesToJson,
+  designCurveToCsv,
+  designCurveToJson,
+  idealizedToCsv,
+  parseDesignCurveCsv,
+  parseDesignCurveJson,
+  parseDesignCurvesJson,
+  parseIdealizedCsv,
+  type DesignCurve,
+  type DesignOptions,
+} from '../packages/pipeline/src/design/index.ts';
+import { grid, lawCurve, normals, PROV, pythonIdsSha256 } from './design-fixtures.ts';
+
+const opts = (o: Partial<DesignOptions> = {}): DesignOptions => ({ ...DEFAULT_DESIGN_OPTIONS, ...o });
+
+function sample(seed: number, o: Partial<DesignOptions> = {}): DesignCurve {
+  const g = grid(0, 0.15, 0.001);
+  const ks = normals(seed, 18, 790, 35);
+  const us = normals(seed + 1, 18, 0.12, 0.01);
+  const tests = ks.map((k, i) => lawCurve(`H${seed}-${i}`, g, (e) => k * Math.pow(0.006 + e, 0.19) + 3 * Math.sin(400 * e + i), us[i], k * Math.pow(0.006, 0.19)));
+  return characteristicCurve({ group: { grade: 'TG-460', supplier: 'Northmoor Rolling, "Works 2"' }, grid: g, tests }, opts(o), PROV);
+}
+
+describe('curve CSV', () => {
+  const c = sample(7);
+
+  it('round-trips every value and the provenance exactly', () => {
+    // Source: exact — JavaScript's shortest round-trip number text (ECMA-262 Number::toString).
+    const text = designCurveToCsv(c);
+    const back = parseDesignCurveCsv(text);
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    expect(back.value.plastic_strain).toEqual(c.plastic_strain);
+    expect(back.value.median_mpa).toEqual(c.median_mpa);
+    expect(back.value.characteristic_mpa).toEqual(c.characteristic_mpa);
+    expect(back.value.extrapolated).toEqual(c.extrapolated);
+    expect(back.value.provenance).toEqual(c.provenance);
+    expect(back.value.group).toEqual(c.group);
+    expect(back.value.e_mpa).toBe(c.e_mpa);
+    expect(back.value.valid_to_plastic_strain).toBe(c.valid_to_plastic_strain);
+    expect(back.value.warnings).toEqual(c.warnings);
+  });
+
+  it('carries the caution in its header and the contract columns', () => {
+    const text = designCurveToCsv(c);
+    const lines = text.split('\n');
+    expect(lines.some((l) => l.startsWith('#') && l.includes(DESIGN_CAUTION))).toBe(true);
+    expect(lines.find((l) => !l.startsWith('#'))).toBe(CURVE_CSV_COLUMNS.join(','));
+    expect(CURVE_CSV_COLUMNS).toEqual(['plastic_strain', 'median_mpa', 'characteristic_mpa', 'extrapolated']);
+  });
+
+  it('reports a bad number with its line and column', () => {
+    const lines = designCurveToCsv(c).split('\n');
+    const head = lines.findIndex((l) => !l.startsWith('#'));
+    const parts = lines[head + 3].split(',');
+    parts[2] = '4x1';
+    lines[head + 3] = parts.join(',');
+    const r = parseDesignCurveCsv(lines.join('\n'));
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.error.code).toBe('bad_number');
+    expect(r.error.location).toEqual({ line: head + 4, column: 3 });
+  });
+});
+
+describe('idealized CSV', () => {
+  it('round-trips the idealizations', () => {
+    const c = sample(8);
+    const back = parseIdealizedCsv(idealizedToCsv(c));
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    expect(back.value.idealized).toEqual(c.idealized);
+    expect(back.value.provenance).toEqual(c.provenance);
+    expect(idealizedToCsv(c)).toContain(DESIGN_CAUTION);
+  });
+});
+
+describe('JSON', () => {
+  it('round-trips a curve and the contract array, keys included', () => {
+    const c = sample(9);
+    const back = parseDesignCurveJson(designCurveToJson(c));
+    expect(back).toEqual({ ok: true, value: c });
+    const arr = parseDesignCurvesJson(designCurvesToJson([c, sample(10)]));
+    expect(arr.ok).toBe(true);
+    if (!arr.ok) return;
+    expect(arr.value[0]).toEqual(c);
+    // contract keys of `fractile curves --format json`
+    for (const k of ['group', 'n', 'plastic_strain', 'median_mpa', 'characteristic_mpa', 'valid_to_plastic_strain', 'extrapolated_from', 'idealized', 'provenance']) {
+      expect(Object.keys(JSON.parse(designCurveToJson(c)))).toContain(k);
+    }
+  });
+
+  it('names the path of a shape fault', () => {
+    const c = JSON.parse(designCurveToJson(sample(11))) as Record<string, unknown>;
+    (c.characteristic_mpa as unknown[]).pop();
+    const r = parseDesignCurveJson(JSON.stringify(c));
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.error.code).toBe('bad_shape');
+    expect(r.error.location?.path).toBe('$.characteristic_mpa');
+  });
+});
+
+describe('provenance', () => {
+  it('hashes the sorted test ids as Python’s hashlib does', () => {
+    // Source: SHA-256 (FIPS 180-4) by Python's hashlib of the sorted ids joined by "\n".
+    const c = sample(12);
+    const ids = Array.from({ length: 18 }, (_, i) => `H12-${i}`);
+    expect(c.provenance.test_ids_sha256).toBe(pythonIdsSha256(ids));
+    expect(c.provenance.n_tests).toBe(18);
+    expect(c.provenance.code_version).toBe(PROV.code_version);
+    expect(c.provenance.generated_at).toBe(PROV.generated_at);
+    expect(c.provenance.caution).toBe(DESIGN_CAUTION);
+  });
+
+  it('changes the settings hash with the settings, not with their order', () => {
+    const a = sample(13);
+    const b = sample(13, { coverage: 0.9 });
+    expect(a.provenance.settings_hash).not.toBe(b.provenance.settings_hash);
+    const reordered = characteristicCurve(
+      { group: a.group, grid: [0, 0.001], tests: [] },
+      { minTestsPerPoint: 5, multilinearPoints: 6, extrapolate: null, model: 'normal', confidence: 0.75, coverage: 0.95 },
+      PROV,
+    );
+    expect(reordered.provenance.settings_hash).toBe(a.provenance.settings_hash);
+  });
+});

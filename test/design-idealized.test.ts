@@ -1,0 +1,138 @@
+// Idealized curves and engineering counterparts of characteristic curves; sources beside each check.
+import { describe, expect, it } from 'vitest';
+import {
+  characteristicCurve,
+  DEFAULT_DESIGN_OPTIONS,
+  engineeringCounterpart,
+  fitRambergOsgoodPlastic,
+  multilinearBreakpoints,
+  rambergOsgoodPlasticStrain,
+  type DesignOptions,
+} from '../packages/pipeline/src/design/index.ts';
+import { grid, lawCurve, normals, PROV, scipyLowerBound } from './design-fixtures.ts';
+
+const opts = (o: Partial<DesignOptions> = {}): DesignOptions => ({ ...DEFAULT_DESIGN_OPTIONS, ...o });
+
+describe('elastic–perfectly plastic and bilinear idealizations', () => {
+  // Source: an exactly bilinear population σ = σy + H·εp with σy normal and H fixed: the stress is
+  // linear in σy, so the characteristic curve is σy,char + H·εp and its least-squares hardening
+  // modulus is H (law, exact); σy,char from scipy.stats.nct (ISO 16269-6).
+  const g = grid(0, 0.08, 0.001);
+  const H = 1450;
+  const ys = normals(101, 24, 365, 18);
+  const tests = ys.map((y, i) => lawCurve(`B-${i}`, g, (e) => y + H * e, 0.08, y, 205));
+  const c = characteristicCurve({ group: { grade: 'TG-355' }, grid: g, tests }, opts(), PROV);
+  const ref = scipyLowerBound(ys, 0.95, 0.75);
+
+  it('EPP yield is the characteristic yield', () => {
+    expect(c.characteristic_yield_mpa!).toBeCloseTo(ref.bound, 8);
+    expect(c.idealized!.elastic_perfectly_plastic.yield_mpa).toBe(c.characteristic_yield_mpa);
+    expect(c.idealized!.elastic_perfectly_plastic.e_mpa).toBe(205_000);
+  });
+
+  it('bilinear hardening modulus equals the analytic slope', () => {
+    expect(c.idealized!.bilinear.hardening_modulus_mpa).toBeCloseTo(H, 6);
+    expect(c.idealized!.bilinear.yield_mpa).toBe(c.characteristic_yield_mpa);
+    // tangent modulus against total strain: 1/E_t = 1/E + 1/H (series springs, exact)
+    expect(c.idealized!.bilinear.tangent_modulus_mpa!).toBeCloseTo(1 / (1 / 205_000 + 1 / H), 6);
+  });
+});
+
+describe('Ramberg–Osgood parameter set', () => {
+  // Source: REFERENCES.md, exact results of the laws: ε = σ/E + 0.002(σ/σ0)^m has Rp0.2 = σ0.
+  // A population σ = σ0,i·(εp/0.002)^(1/m) with σ0 normal and m fixed is linear in σ0, so its
+  // characteristic curve is the law with σ0,char (scipy.stats.nct) and the same m.
+  const m = 9;
+  const g = grid(0.002, 0.06, 0.001);
+  const s0 = normals(202, 20, 280, 12);
+  const tests = s0.map((s, i) => lawCurve(`R-${i}`, g, (e) => s * Math.pow(e / 0.002, 1 / m), 0.06, s, 70));
+  const c = characteristicCurve({ group: { grade: 'AL-6X' }, grid: g, tests }, opts(), PROV);
+  const ref = scipyLowerBound(s0, 0.95, 0.75);
+
+  it('recovers σ0 = characteristic Rp0.2 and m', () => {
+    const ro = c.idealized!.ramberg_osgood!;
+    expect(ro.sigma0_mpa).toBeCloseTo(ref.bound, 6);
+    expect(ro.m).toBeCloseTo(m, 6);
+    expect(ro.e_mpa).toBe(70_000);
+    // the characteristic curve's stress at εp = 0.002 (its Rp0.2) is σ0 of the set
+    expect(c.plastic_strain[0]).toBe(0.002);
+    expect(c.characteristic_mpa[0]).toBeCloseTo(ro.sigma0_mpa, 6);
+    // and the set, read back at σ0, has a plastic strain of exactly 0.2 %
+    expect(rambergOsgoodPlasticStrain(ro.sigma0_mpa, ro.sigma0_mpa, ro.m)).toBe(0.002);
+  });
+
+  it('returns null without hardening', () => {
+    expect(fitRambergOsgoodPlastic([0.001, 0.002, 0.003], [300, 300, 300])).toBeNull();
+  });
+});
+
+describe('multilinear idealization', () => {
+  // Source: exact — a curve that is piecewise linear with N − 1 segments is reproduced with zero
+  // error by exactly its own N breakpoints (optimal segmentation by dynamic programming).
+  it('finds the true breakpoints of a piecewise-linear curve', () => {
+    const x = grid(0, 0.1, 0.001);
+    const knots = [0, 0.012, 0.037, 0.07, 0.1];
+    const ys = [350, 380, 410, 425, 432];
+    const y = x.map((e) => {
+      let j = 0;
+      while (j < knots.length - 2 && e > knots[j + 1]) j++;
+      return ys[j] + ((ys[j + 1] - ys[j]) * (e - knots[j])) / (knots[j + 1] - knots[j]);
+    });
+    const { indices } = multilinearBreakpoints(x, y, 5);
+    expect(indices.map((i) => x[i])).toEqual(knots);
+  });
+
+  it('has N points on the characteristic curve, first and last included', () => {
+    const g = grid(0, 0.12, 0.001);
+    const ks = normals(303, 15, 780, 30);
+    const tests = ks.map((k, i) => lawCurve(`ML-${i}`, g, (e) => k * Math.pow(0.005 + e, 0.2), 0.12, k * Math.pow(0.005, 0.2)));
+    const c = characteristicCurve({ group: { grade: 'TG-420' }, grid: g, tests }, opts({ multilinearPoints: 7 }), PROV);
+    const ml = c.idealized!.multilinear;
+    expect(ml.plastic_strain.length).toBe(7);
+    expect(ml.plastic_strain[0]).toBe(c.plastic_strain[0]);
+    expect(ml.plastic_strain[6]).toBe(c.plastic_strain[c.plastic_strain.length - 1]);
+    ml.plastic_strain.forEach((e, i) => expect(ml.stress_mpa[i]).toBe(c.characteristic_mpa[c.plastic_strain.indexOf(e)]));
+    // more points never fit worse (nested optimum): the largest gap to the curve shrinks
+    const gap = (n: number) => {
+      const { indices } = multilinearBreakpoints(c.plastic_strain, c.characteristic_mpa, n);
+      let worst = 0;
+      for (let s = 0; s + 1 < indices.length; s++) {
+        const [a, b] = [indices[s], indices[s + 1]];
+        for (let i = a; i <= b; i++) {
+          const t = (c.plastic_strain[i] - c.plastic_strain[a]) / (c.plastic_strain[b] - c.plastic_strain[a]);
+          worst = Math.max(worst, Math.abs(c.characteristic_mpa[i] - (c.characteristic_mpa[a] + t * (c.characteristic_mpa[b] - c.characteristic_mpa[a]))));
+        }
+      }
+      return worst;
+    };
+    expect(gap(12)).toBeLessThan(gap(4));
+  });
+});
+
+describe('engineering counterparts', () => {
+  it('invert σ_t = σ_e(1 + e), ε_t = ln(1 + e)', () => {
+    // Source: REFERENCES.md, exact results of the laws: σ_e = 400 MPa at e = 0.10 gives
+    // σ_t = 440 MPa, ε_t = 0.09531; with ε_p = ε_t − σ_t/E.
+    const E = 200_000;
+    const epsP = Math.log(1.1) - 440 / E;
+    const eng = engineeringCounterpart([epsP], [440], E)!;
+    expect(eng.strain[0]).toBeCloseTo(0.1, 12);
+    expect(eng.stress_mpa[0]).toBeCloseTo(400, 9);
+    expect(engineeringCounterpart([0.01], [400], null)).toBeNull();
+  });
+
+  it('accompany the median and the characteristic curve', () => {
+    const g = grid(0, 0.1, 0.002);
+    const ks = normals(404, 12, 780, 30);
+    const tests = ks.map((k, i) => lawCurve(`E-${i}`, g, (e) => k * Math.pow(0.005 + e, 0.2), 0.1, k * Math.pow(0.005, 0.2), 210));
+    const c = characteristicCurve({ group: { grade: 'TG-420' }, grid: g, tests }, opts(), PROV);
+    const eng = c.engineering!;
+    expect(eng.characteristic.strain.length).toBe(c.plastic_strain.length);
+    c.plastic_strain.forEach((e, i) => {
+      const et = e + c.characteristic_mpa[i] / 210_000;
+      expect(eng.characteristic.strain[i]).toBeCloseTo(Math.exp(et) - 1, 12);
+      expect(eng.characteristic.stress_mpa[i] * (1 + eng.characteristic.strain[i])).toBeCloseTo(c.characteristic_mpa[i], 8);
+      expect(eng.median.stress_mpa[i] * (1 + eng.median.strain[i])).toBeCloseTo(c.median_mpa[i], 8);
+    });
+  });
+});
