@@ -7,9 +7,9 @@ import type { Kysely } from 'kysely';
 import type { Database, SpecimenShapeCode } from './schema.ts';
 
 export interface TestFilter {
-  lab?: string;
-  grade?: string;
-  supplier?: string;
+  lab?: string | readonly string[];
+  grade?: string | readonly string[];
+  supplier?: string | readonly string[];
   /** inclusive ISO dates */
   testedFrom?: string;
   testedTo?: string;
@@ -67,9 +67,10 @@ export async function listTests(db: Kysely<Database>, filter: TestFilter = {}): 
       eb.exists(eb.selectFrom('summary_records as r').select('r.test_row_id').whereRef('r.test_row_id', '=', 't.id')).as('has_summary'),
     ]);
   if (!filter.includeHistory) q = q.where('t.is_current', '=', true);
-  if (filter.lab !== undefined) q = q.where('t.lab', '=', filter.lab);
-  if (filter.grade !== undefined) q = q.where('g.code', '=', filter.grade);
-  if (filter.supplier !== undefined) q = q.where('s.name', '=', filter.supplier);
+  const oneOf = (v: string | readonly string[]) => (typeof v === 'string' ? [v] : [...v]);
+  if (filter.lab !== undefined) q = q.where('t.lab', 'in', oneOf(filter.lab));
+  if (filter.grade !== undefined) q = q.where('g.code', 'in', oneOf(filter.grade));
+  if (filter.supplier !== undefined) q = q.where('s.name', 'in', oneOf(filter.supplier));
   if (filter.testedFrom !== undefined) q = q.where('t.tested_on', '>=', filter.testedFrom);
   if (filter.testedTo !== undefined) q = q.where('t.tested_on', '<=', filter.testedTo);
   const rows = await q.orderBy('t.lab').orderBy('t.test_id').orderBy('t.version').execute();

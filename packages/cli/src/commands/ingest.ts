@@ -1,0 +1,62 @@
+/**
+ * `fractile ingest <manifest>…`: manifests (DESIGN formats, or curve files read through a column
+ * map) into the raw tables. Each rejection is printed on stderr as `file:line:column: code:
+ * message` and recorded; the rest still loads. Exit code 3 when anything was rejected.
+ */
+import type { Command } from 'commander';
+import { formatRejection, ingestManifests } from '@fractile/ingest';
+import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
+import { progressBar } from '../progress.ts';
+import { withStore } from '../shared-options.ts';
+import { CODE_VERSION } from '../version.ts';
+
+export const EXIT_REJECTED = 3;
+
+export const command: CommandModule = {
+  order: 10,
+  register(program: Command) {
+    program
+      .command('ingest')
+      .description('load tests from manifests (and their curve files) into the database')
+      .argument('<manifest...>', 'manifest CSV files (curve paths are relative to each manifest)')
+      .option('--map <file>', 'column map (JSON) for the curve files of these manifests: delimiter, decimal mark, header row, channels and units')
+      .option('--dry-run', 'check and classify everything, write nothing')
+      .option('--replace', 'a stored test whose content changed is replaced (the old version is kept as history) instead of rejected')
+      .option('--batch-size <n>', 'tests per transaction', '200')
+      .addHelpText(
+        'after',
+        `
+Output (--format json): {"run", "accepted", "duplicates", "replaced", "rejected": [{"file", "line", "column", "code", "message"}], "dry_run"}.
+Rejections are also printed on stderr as file:line:column: code: message (line/column 1-based; 0 = whole file).
+Codes: missing_column, missing_value, not_a_number, not_finite, nonpositive_dimension, nonpositive_value, unknown_unit,
+unknown_shape, unknown_yield_definition, invalid_date, missing_curve_file, path_escapes_folder, curve_too_short,
+missing_channel, time_not_monotonic, not_utf8, conflict, bad_column_map, unreadable_file, malformed_csv.
+Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage, 1 on failure.`,
+      )
+      .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string }, cmd: Command) => {
+        const g = globals(cmd);
+        const batchSize = Number(o.batchSize);
+        if (!Number.isInteger(batchSize) || batchSize < 1) throw new CliError(`--batch-size must be a whole number ≥ 1, got "${o.batchSize}"`);
+        await withStore(g, async (store) => {
+          const bar = progressBar('ingest');
+          let summary;
+          try {
+            summary = await ingestManifests(store, manifests.map((path) => ({ path, map: o.map ?? null })), {
+              dryRun: Boolean(o.dryRun),
+              replace: Boolean(o.replace),
+              batchSize,
+              codeVersion: CODE_VERSION,
+              onProgress: (done, total) => bar.update(done, total),
+            });
+          } finally {
+            bar.stop();
+          }
+          for (const r of summary.rejected) log(formatRejection(r));
+          log(`${summary.dry_run ? 'dry run: would accept' : `run ${summary.run}: accepted`} ${summary.accepted} (${summary.replaced} replacing a stored version), ${summary.duplicates} duplicate, ${summary.rejected.length} rejected`);
+          const row = { run: summary.run, accepted: summary.accepted, duplicates: summary.duplicates, replaced: summary.replaced, rejected: summary.rejected.length, dry_run: summary.dry_run };
+          emit(g.format, summary, [row]);
+          if (summary.rejected.length > 0) process.exitCode = EXIT_REJECTED;
+        });
+      });
+  },
+};
