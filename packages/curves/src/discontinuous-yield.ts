@@ -6,8 +6,9 @@
  *
  * Detection (our own rule, O(points)): a running-maximum point p is the yield point when, over
  * the next 0.3 % strain, the stress never rises more than a tolerance (0.3 % of σp or 4× the
- * noise) above σp, and either (a) falls at least max(0.5 % σp, 6× noise) below it — an upper
- * yield point — or (b) stays flat and afterwards rises again at least twice the tolerance over
+ * noise) above σp, and either (a) its 5-point average falls at least max(0.5 % σp, 8× noise)
+ * below σp, with the mean over the span at least half that below — an upper yield point — or
+ * (b) stays flat and afterwards rises again (5-point averages) at least twice the tolerance over
  * 0.3 % strain, which a continuously (concavely) hardening curve cannot do. The search stops at
  * maximum force, so a curve whose upper yield is its maximum force counts as continuous.
  *
@@ -47,6 +48,14 @@ function medianAndQuartile(values: Float64Array): [number, number] {
   return [med, values[Math.floor((values.length - 1) / 4)]];
 }
 
+/** mean of the five points around j, clipped to [lo, hi] */
+function avg5(stressMpa: ArrayLike<number>, j: number, lo: number, hi: number): number {
+  const a = Math.max(lo, j - 2), b = Math.min(hi, j + 2);
+  let s = 0;
+  for (let k = a; k <= b; k++) s += stressMpa[k];
+  return s / (b - a + 1);
+}
+
 export function findDiscontinuousYield(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number): DiscontinuousYield | null {
   const rm = stressMpa[imax];
   let runMax = -Infinity;
@@ -56,25 +65,29 @@ export function findDiscontinuousYield(strain: ArrayLike<number>, stressMpa: Arr
     runMax = sp;
     if (sp < 0.2 * rm) continue;
     const tol = Math.max(0.003 * sp, 4 * noiseMpa);
-    const drop = Math.max(0.005 * sp, 6 * noiseMpa);
+    const drop = Math.max(0.005 * sp, 8 * noiseMpa);
     let j = p + 1;
-    let min = sp;
+    let minAvg = sp;
+    let sum = 0;
     let failed = false;
     while (j <= imax && strain[j] <= strain[p] + SPAN) {
       if (stressMpa[j] > sp + tol) { failed = true; break; }
-      if (stressMpa[j] < min) min = stressMpa[j];
+      sum += stressMpa[j];
+      const a = avg5(stressMpa, j, p + 1, imax);
+      if (a < minAvg) minAvg = a;
       j++;
     }
-    if (failed || j > imax) continue;
+    if (failed || j > imax || j === p + 1) continue;
+    const mean = sum / (j - p - 1);
     let kind: DiscontinuousYield['kind'];
-    if (min <= sp - drop) kind = 'upper_yield_point';
+    if (minAvg <= sp - drop && mean <= sp - drop / 2) kind = 'upper_yield_point';
     else {
       let q = j;
       while (q <= imax && stressMpa[q] <= sp + tol) q++;
       if (q > imax) continue;
       let r = q;
       while (r <= imax && strain[r] < strain[q] + SPAN) r++;
-      if (r > imax || stressMpa[r] - stressMpa[q] < 2 * tol) continue;
+      if (r > imax || avg5(stressMpa, r, p, imax) - avg5(stressMpa, q, p, imax) < 2 * tol) continue;
       kind = 'flat_plateau';
     }
     // ReH: the top of the peak, before the stress first falls by the drop threshold

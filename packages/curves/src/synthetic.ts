@@ -88,10 +88,10 @@ function build(c: SyntheticCommon, yieldStrain: number, eU: number, stressAt: (e
     strain.push(e);
     if (e <= eU) stress.push(stressAt(e));
     else {
-      // necking: a smooth descent from Rm (zero slope at eU) to fractureFraction·Rm, on top of the
-      // law's own descent where the law has a maximum
+      // necking: a smooth descent from Rm (zero slope at eU) to fractureFraction·Rm; where the law
+      // has its own maximum it continues, with a cubic necking term that starts gently
       const u = (e - eU) / o.neckStrain;
-      stress.push((lawTail ? stressAt(e) : rm) * (1 - (1 - o.fractureFraction) * u * u));
+      stress.push(lawTail ? stressAt(e) * (1 - (1 - o.fractureFraction) * u * u * u) : rm * (1 - (1 - o.fractureFraction) * u * u));
     }
   }
   // fracture: the force falls to almost nothing in two samples

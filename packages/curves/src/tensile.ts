@@ -4,7 +4,7 @@
  * plastic extension at fracture = e_f − σ_f/E; At = total extension at fracture.
  *
  * The strain at maximum force is the vertex of a least-squares parabola through the contiguous
- * points within 3× the noise of the maximum (a flat top makes the single highest point a poor
+ * points within 3× the noise of the maximum, trimmed to be symmetric in strain (a flat top makes the single highest point a poor
  * estimate with noise); the highest point's strain when the noise is below 0.01 % of Rm, when
  * fewer than 5 points qualify or the parabola is not concave with its vertex inside them. The parabola is solved by hand
  * (3×3 normal equations).
@@ -34,15 +34,29 @@ export function indexOfMax(stressMpa: ArrayLike<number>, from = 0, to = stressMp
 }
 
 /** Strain at the vertex of a parabola through the top of the curve around `imax`. */
-export function strainAtMaximum(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number): number {
+export function strainAtMaximum(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number, to = stressMpa.length): number {
   const rm = stressMpa[imax];
-  const band = 3 * noiseMpa;
-  if (band <= 1e-4 * rm) return strain[imax]; // noise below resolution: the highest point is best
-  let a = imax, b = imax;
-  while (a > 0 && stressMpa[a - 1] >= rm - band) a--;
-  while (b < stressMpa.length - 1 && stressMpa[b + 1] >= rm - band) b++;
+  if (3 * noiseMpa <= 1e-4 * rm) return strain[imax]; // noise below resolution: the highest point is best
+  // the top of a 15-point moving average (noise / √15), then the points within 2× noise of it
+  const W = 7;
+  const mean = (j: number): number => {
+    const lo = Math.max(0, j - W), hi = Math.min(to - 1, j + W);
+    let s = 0;
+    for (let k = lo; k <= hi; k++) s += stressMpa[k];
+    return s / (hi - lo + 1);
+  };
+  let jm = imax, best = -Infinity;
+  const from = Math.max(0, imax - 20 * W), until = Math.min(to - 1, imax + 20 * W);
+  for (let j = from; j <= until; j++) { const m = mean(j); if (m > best) { best = m; jm = j; } }
+  let a = jm, b = jm;
+  while (a > 0 && mean(a - 1) >= best - 2 * noiseMpa) a--;
+  while (b < to - 1 && mean(b + 1) >= best - 2 * noiseMpa) b++;
+  // symmetric in strain about the top, so that a steeper side does not pull the vertex
+  const x0 = strain[jm];
+  const w = Math.min(x0 - strain[a], strain[b] - x0);
+  while (a < jm && strain[a] < x0 - w) a++;
+  while (b > jm && strain[b] > x0 + w) b--;
   if (b - a + 1 < 5) return strain[imax];
-  const x0 = strain[imax];
   let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
   for (let i = a; i <= b; i++) {
     const x = strain[i] - x0, y = stressMpa[i] - rm, x2 = x * x;
@@ -53,9 +67,9 @@ export function strainAtMaximum(strain: ArrayLike<number>, stressMpa: ArrayLike<
   if (!(Math.abs(det) > 0)) return strain[imax];
   const c1 = (s0 * (t1 * s4 - s3 * t2) - t0 * (s1 * s4 - s3 * s2) + s2 * (s1 * t2 - t1 * s2)) / det;
   const c2 = (s0 * (s2 * t2 - t1 * s3) - s1 * (s1 * t2 - t1 * s2) + t0 * (s1 * s3 - s2 * s2)) / det;
-  if (!(c2 < 0)) return strain[imax];
+  if (!(c2 < 0)) return x0;
   const xv = x0 - c1 / (2 * c2);
-  return xv >= strain[a] && xv <= strain[b] ? xv : strain[imax];
+  return xv >= strain[a] && xv <= strain[b] ? xv : x0;
 }
 
 export function findFracture(stressMpa: ArrayLike<number>, imax: number): { index: number; detected: boolean } {
@@ -76,7 +90,7 @@ export function tensileValues(strain: ArrayLike<number>, stressMpa: ArrayLike<nu
   const maxIndex = indexOfMax(stressMpa);
   const fr = findFracture(stressMpa, maxIndex);
   const ef = strain[fr.index];
-  const eu = Math.min(strainAtMaximum(strain, stressMpa, maxIndex, noiseMpa), ef);
+  const eu = Math.min(strainAtMaximum(strain, stressMpa, maxIndex, noiseMpa, fr.index + 1), ef);
   return {
     maxIndex, rmMpa: stressMpa[maxIndex], uniformStrain: eu,
     fractureIndex: fr.index, fractureDetected: fr.detected, fractureStrain: ef, fractureStressMpa: stressMpa[fr.index],

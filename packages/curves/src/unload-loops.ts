@@ -1,5 +1,6 @@
 /**
- * Unload–reload loops: the stress falls by at least 15 % of its value at the loop start while
+ * Unload–reload loops: the stress falls by at least 15 % of its value at the loop start (and by
+ * at least 5 % of the record's maximum, so that noise at the start is no loop) while
  * the strain goes back (by at least a quarter of the elastic return at 250 GPa), and later
  * reloads to the loop-start stress. The unloading modulus of each loop is the least-squares slope
  * of its unloading branch between 10 % and 90 % of the branch's stress range (the fact that
@@ -31,13 +32,16 @@ const E_UPPER_MPA = 250_000;
 export function findUnloadLoops(strain: Float64Array, stressMpa: Float64Array): Envelope {
   const n = strain.length;
   const loops: UnloadLoop[] = [];
+  let top = 0;
+  for (let k = 0; k < n; k++) if (stressMpa[k] > top) top = stressMpa[k];
+  const minDrop = 0.05 * top;
   let p = 0;
   let i = 1;
   while (i < n) {
     if (stressMpa[i] >= stressMpa[p]) { p = i; i++; continue; }
     const sp = stressMpa[p];
     const drop = sp - stressMpa[i];
-    if (sp > 0 && drop >= 0.15 * sp && strain[i] < strain[p] - (0.25 * drop) / E_UPPER_MPA) {
+    if (sp > 0 && drop >= 0.15 * sp && drop >= minDrop && strain[i] < strain[p] - (0.25 * drop) / E_UPPER_MPA) {
       // follow the unloading branch to its minimum
       let m = i;
       let j = i + 1;
