@@ -104,21 +104,31 @@ export function peltMeanChange(values: ArrayLike<number>, opts: PeltOptions = {}
   F[0] = -beta;
   // Candidates: last change before t. A candidate failing the pruning test at time t can still be
   // optimal for t' < t + m (where t itself is not yet a feasible change), so it is dropped at t + m.
-  let cand: number[] = [0];
-  let dropAt: number[] = [Infinity];
-  let vals = new Float64Array(16);
+  // Typed arrays compacted in place keep the inner loop free of allocation.
+  const cand = new Int32Array(n + 1);
+  const dropAt = new Float64Array(n + 1);
+  const vals = new Float64Array(n + 1);
+  const { s1, s2 } = sums;
+  let nc = 1;
+  cand[0] = 0;
+  dropAt[0] = Infinity;
   for (let t = m; t <= n; t++) {
     const fresh = t - m;
     if (fresh >= m) {
-      cand.push(fresh);
-      dropAt.push(Infinity);
+      cand[nc] = fresh;
+      dropAt[nc] = Infinity;
+      nc++;
     }
     let best = Infinity;
     let arg = -1;
-    if (vals.length < cand.length) vals = new Float64Array(2 * cand.length);
-    for (let j = 0; j < cand.length; j++) {
+    const s1t = s1[t];
+    const s2t = s2[t];
+    for (let j = 0; j < nc; j++) {
       const tau = cand[j];
-      const v = F[tau] + segmentRss(sums, tau, t) * inv + beta;
+      const d1 = s1t - s1[tau];
+      let rss = s2t - s2[tau] - (d1 * d1) / (t - tau);
+      if (rss < 0) rss = 0;
+      const v = F[tau] + rss * inv + beta;
       vals[j] = v;
       if (v < best) {
         best = v;
@@ -127,17 +137,16 @@ export function peltMeanChange(values: ArrayLike<number>, opts: PeltOptions = {}
     }
     F[t] = best;
     last[t] = arg;
-    const nc: number[] = [];
-    const nd: number[] = [];
-    for (let j = 0; j < cand.length; j++) {
+    let keep = 0;
+    for (let j = 0; j < nc; j++) {
       let d = dropAt[j];
       if (d === Infinity && vals[j] - beta > best) d = t + m;
       if (d <= t + 1) continue; // not a candidate from the next step on
-      nc.push(cand[j]);
-      nd.push(d);
+      cand[keep] = cand[j];
+      dropAt[keep] = d;
+      keep++;
     }
-    cand = nc;
-    dropAt = nd;
+    nc = keep;
   }
   const changes: number[] = [];
   let t = n;

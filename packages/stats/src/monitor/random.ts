@@ -11,7 +11,7 @@ export interface MonitorRandom {
   uniform(): number;
   /** Standard normal N(0, 1). */
   normal(): number;
-  /** Integer uniform on 0 … n−1. */
+  /** Integer uniform on 0 … n−1 (n < 2^32). */
   index(n: number): number;
 }
 
@@ -27,6 +27,7 @@ export function createMonitorRandom(seed: number): MonitorRandom {
   return {
     uniform,
     normal: () => normal(),
-    index: (n: number) => Math.min(n - 1, Math.floor(uniform() * n)),
+    // One 32-bit draw per index (the 53-bit uniform takes two); bias ≤ n/2^32, negligible.
+    index: (n: number) => Math.min(n - 1, Math.floor((u() / 4294967296) * n)),
   };
 }
