@@ -1,0 +1,59 @@
+/**
+ * One group's section: the curves chart beside the idealization and provenance of the
+ * characteristic curve, the property table, and one histogram per property.
+ */
+import { chartFigure } from './chart-figure.ts';
+import { renderCurvesChart } from './curves-chart.ts';
+import { formatInteger } from './format-number.ts';
+import { groupLabel } from './group-label.ts';
+import { headlineCharacteristic, renderHistogram } from './histogram-chart.ts';
+import { escapeHtml } from './html-escape.ts';
+import { jsonDefinitionList } from './json-view.ts';
+import { propertyAxisTitle } from './property-labels.ts';
+import { propertyTable } from './property-table.ts';
+import type { ReportGroup } from './types.ts';
+
+export function groupAnchor(index: number): string {
+  return `group-${index + 1}`;
+}
+
+export async function groupSection(group: ReportGroup, index: number): Promise<string> {
+  const label = groupLabel(group.key);
+  const prefix = `g${index + 1}`;
+  const tests = group.properties.reduce((m, p) => Math.max(m, p.stats.n), group.curves?.n ?? 0);
+
+  let curves = '<p class="empty">No characteristic curve for this group (no usable test curves).</p>';
+  if (group.curves) {
+    const svg = await renderCurvesChart(group.curves, group.sample_curves, { idPrefix: `${prefix}-curves` });
+    const extrapolation =
+      group.curves.extrapolated_from !== null
+        ? ` Dashed beyond plastic strain ${group.curves.extrapolated_from}: extrapolated by the fitted law, not measured.`
+        : '';
+    curves = `<div class="curve-row">
+${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's test curves. Bold: median and characteristic true stress. Dotted rule: validity limit.${extrapolation}`)}
+<div class="side">
+<h3>Idealized characteristic curve</h3>
+${jsonDefinitionList(group.curves.idealized ?? {})}
+<h3>Provenance</h3>
+${jsonDefinitionList(group.curves.provenance ?? {})}
+</div>
+</div>`;
+  }
+
+  const histograms: string[] = [];
+  for (let j = 0; j < group.properties.length; j++) {
+    const p = group.properties[j];
+    const svg = await renderHistogram(p, { idPrefix: `${prefix}-h${j + 1}` });
+    const headline = headlineCharacteristic(p);
+    const caption = `${propertyAxisTitle(p.stats.property)}: bars are tests per bin, the curve the fitted ${p.stats.best_fit ?? 'model'} scaled to counts; solid rule the characteristic value${headline ? ` (${headline.method})` : ''}, dashed rules the specification limits.`;
+    histograms.push(chartFigure(svg, caption));
+  }
+
+  return `<section class="block group" id="${groupAnchor(index)}">
+<div class="group-head"><h2>${escapeHtml(label)}</h2><span class="n">${formatInteger(tests)} tests</span></div>
+${curves}
+<h3>Properties</h3>
+${propertyTable(group.properties)}
+${histograms.length > 0 ? `<div class="hist-grid">\n${histograms.join('\n')}\n</div>` : ''}
+</section>`;
+}

@@ -1,0 +1,265 @@
+/**
+ * Input of the report: plain typed data assembled by the pipeline from the stage outputs.
+ * The report never reads the database, the files or the clock; everything it shows is here.
+ *
+ * The shapes of `CharacteristicCurve`, `PropertyStats` and `DriftResult` follow the JSON
+ * contracts of `fractile curves`, `fractile stats` and `fractile drift` (same keys, snake_case).
+ * The rest (samples, raw values, chart series) is what the pipeline adds for drawing.
+ */
+
+/** Any JSON value; used where a stage output is open-ended (idealizations, provenance). */
+export type JsonValue = string | number | boolean | null | readonly JsonValue[] | { readonly [key: string]: JsonValue };
+
+/** A population's identity, e.g. `{ grade: 'G355', supplier: 'Northmill' }` or `{ grade: 'G355' }`. */
+export type GroupKey = Readonly<Record<string, string>>;
+
+/** Counts over the whole database at report time. */
+export interface ReportCounts {
+  tests: number;
+  curves: number;
+  summary_only: number;
+  rejected: number;
+  failed: number;
+  flagged: number;
+}
+
+/** One grade of the catalog as the report lists it. */
+export interface CatalogGradeSummary {
+  grade: string;
+  family?: string;
+  yield_definition?: string;
+  /** Specification limits by name (`yield_min_mpa`, `tensile_max_mpa`, …); null where unset. */
+  spec?: Readonly<Record<string, number | null>>;
+}
+
+export interface CatalogSummary {
+  /** Where the catalog came from (file name as given by the user), or null for the built-in default. */
+  source: string | null;
+  /** SHA-256 of the catalog content, or null. */
+  hash: string | null;
+  grades: readonly CatalogGradeSummary[];
+}
+
+export interface ReportMeta {
+  title: string;
+  /** ISO 8601 time stamp of the run; passed in, never read from the clock here. */
+  generated_at: string;
+  code_version: string;
+  database: { engine: string; target: string };
+  /** Settings hash per stage or purpose, e.g. `{ reduce: 'a1b2…', stats: 'c3d4…' }`. */
+  settings_hashes: Readonly<Record<string, string>>;
+  catalog: CatalogSummary;
+  counts: ReportCounts;
+}
+
+// ---------------------------------------------------------------------------------------------
+// curves stage (contract of `fractile curves --format json`)
+
+/** Median and characteristic true stress–plastic strain curve of one group. */
+export interface CharacteristicCurve {
+  group: GroupKey;
+  n: number;
+  /** Common abscissa, true plastic strain [–]. */
+  plastic_strain: readonly number[];
+  /** Median true stress at each abscissa [MPa]. */
+  median_mpa: readonly number[];
+  /** Characteristic (lower-fractile) true stress at each abscissa [MPa]. */
+  characteristic_mpa: readonly number[];
+  /** Largest plastic strain [–] up to which the curve is supported by the data; null if unknown. */
+  valid_to_plastic_strain: number | null;
+  /** Plastic strain [–] beyond which the curve is extrapolated by a fitted law, or null. */
+  extrapolated_from: number | null;
+  /** Idealizations of the characteristic curve (fitted laws, bilinear model …), shown as given. */
+  idealized: Readonly<Record<string, JsonValue>> | null;
+  provenance: Readonly<Record<string, JsonValue>> | null;
+}
+
+/** One measured test curve (already thinned by the pipeline), true stress on plastic strain. */
+export interface SampleCurve {
+  test_id: string;
+  plastic_strain: readonly number[];
+  stress_mpa: readonly number[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// stats stage (contract of `fractile stats --format json`)
+
+/**
+ * A fitted distribution. Parameters by model: normal `{ mean, sd }`; lognormal `{ mu, sigma }`
+ * of ln x; weibull `{ shape, scale }`. `ad` is the Anderson–Darling statistic, `p` its p-value.
+ */
+export interface DistributionFit {
+  model: string;
+  params: Readonly<Record<string, number>>;
+  ad: number | null;
+  p: number | null;
+}
+
+export interface CharacteristicValue {
+  method: string;
+  coverage: number | null;
+  confidence: number | null;
+  value: number | null;
+  note: string | null;
+}
+
+export interface Compliance {
+  lower: number | null;
+  upper: number | null;
+  n_below: number;
+  n_above: number;
+  fraction_outside: number;
+  tail_below: number | null;
+  tail_above: number | null;
+  cpk: number | null;
+}
+
+export interface PropertyStats {
+  group: GroupKey;
+  /** Property key as in `fractile properties` (`rp02_mpa`, `rm_mpa`, `ag_pct`, `n_value`, …). */
+  property: string;
+  n: number;
+  mean: number | null;
+  sd: number | null;
+  cov: number | null;
+  min: number | null;
+  max: number | null;
+  median: number | null;
+  percentiles: { p05: number | null; p50: number | null; p95: number | null };
+  fits: readonly DistributionFit[];
+  best_fit: string | null;
+  characteristic: readonly CharacteristicValue[];
+  compliance: Compliance | null;
+  warnings: readonly string[];
+}
+
+/** A property of a group: its statistics and the raw values the histogram is drawn from. */
+export interface ReportProperty {
+  stats: PropertyStats;
+  values: readonly number[];
+  /** Method of the characteristic value marked in the histogram; default the first with a value. */
+  headline_method?: string;
+}
+
+export interface ReportGroup {
+  key: GroupKey;
+  curves: CharacteristicCurve | null;
+  sample_curves: readonly SampleCurve[];
+  properties: readonly ReportProperty[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// drift stage (contract of `fractile drift --format json`)
+
+/** A test named by an alert: its id, or lab and id. */
+export type DriftTestRef = string | { lab?: string; test_id: string };
+
+export interface DriftAlert {
+  group: GroupKey;
+  property: string;
+  rule: string;
+  first_date: string;
+  magnitude: number | null;
+  tests: readonly DriftTestRef[];
+}
+
+export interface ChangePoint {
+  group: GroupKey;
+  property: string;
+  date: string;
+  shift: number | null;
+  /** Confidence interval of the date or shift, as the drift stage states it. */
+  ci: readonly JsonValue[] | Readonly<Record<string, JsonValue>> | null;
+}
+
+/** A comparison row (supplier against supplier, period against period); shown as given. */
+export type DriftComparison = Readonly<Record<string, JsonValue>>;
+
+export interface DriftResult {
+  alerts: readonly DriftAlert[];
+  change_points: readonly ChangePoint[];
+  comparisons: readonly DriftComparison[];
+}
+
+export interface ControlPoint {
+  /** ISO 8601 date of the test. */
+  date: string;
+  value: number;
+  test_id: string;
+  lab?: string;
+}
+
+/** EWMA statistic aligned with the points; limits constant or one per point. */
+export interface EwmaSeries {
+  values: readonly number[];
+  center: number;
+  ucl: number | readonly number[];
+  lcl: number | readonly number[];
+  lambda?: number;
+  L?: number;
+}
+
+/** Data for one control chart (individuals chart, optional EWMA panel). */
+export interface ControlSeries {
+  group: GroupKey;
+  property: string;
+  points: readonly ControlPoint[];
+  center: number;
+  ucl: number;
+  lcl: number;
+  ewma?: EwmaSeries | null;
+  spec_min?: number | null;
+  spec_max?: number | null;
+}
+
+export interface ReportDrift {
+  result: DriftResult;
+  series: readonly ControlSeries[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// data quality
+
+export interface RejectionRow {
+  file: string;
+  line: number | null;
+  column: number | null;
+  code: string;
+  message: string;
+}
+
+export interface FailedTestRow {
+  lab: string;
+  test_id: string;
+  code: string;
+  message: string;
+}
+
+export interface FlaggedTestRow {
+  lab: string;
+  test_id: string;
+  flags: readonly string[];
+}
+
+export interface ReportQuality {
+  rejections: readonly RejectionRow[];
+  failed: readonly FailedTestRow[];
+  flagged: readonly FlaggedTestRow[];
+}
+
+// ---------------------------------------------------------------------------------------------
+
+export interface ReportOptions {
+  /** Rows shown per data-quality or drift table before truncation (default 200). */
+  max_rows?: number;
+}
+
+export interface ReportData {
+  meta: ReportMeta;
+  /** Caution shown at top and bottom; default `DESIGN_VALUE_CAUTION`. */
+  caution?: string;
+  groups: readonly ReportGroup[];
+  drift: ReportDrift | null;
+  quality: ReportQuality;
+  options?: ReportOptions;
+}
