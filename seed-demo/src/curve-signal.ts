@@ -13,6 +13,8 @@
  * - optional unload–reload loop along the initial elastic slope (with a thin hysteresis);
  * - optional extensometer removal: from a strain on, the extension channel holds its last value
  *   while force and crosshead go on;
+ * - optional anchor: the sample nearest a given strain (the upper yield point) moves onto it,
+ *   so that a sharp peak is recorded rather than missed between samples;
  * - fracture: two last points with the force fallen to a few percent.
  *
  * Units in and out: N, mm, s, MPa. Time rises strictly (the crosshead never stops).
@@ -43,6 +45,8 @@ export interface SignalOptions {
   loopAtStrain: number | null;
   /** engineering strain from which the extension channel holds its value, or null */
   extensometerRemovedAtStrain: number | null;
+  /** engineering strain of a point that must be sampled exactly (the upper yield point), or null */
+  anchorStrain: number | null;
 }
 
 export interface Signal {
@@ -90,6 +94,15 @@ export function synthesizeSignal(curve: EngineeringCurve, spec: SpecimenSetup, m
     const raw = eTrue * L0 + mach.seatingMm * (1 - Math.exp(-Math.max(F, 0) / fSeat)) + mach.extensionNoiseMm * rng.normal();
     return Math.round(raw / q) * q;
   };
+  const dxMain = xTotal / (nMain - 1);
+  let kAnchor = -1;
+  let xAnchor = 0;
+  if (opts.anchorStrain !== null) {
+    let ia = 0;
+    while (ia < nd - 1 && strain[ia] < opts.anchorStrain) ia++;
+    xAnchor = xd[ia];
+    kAnchor = Math.round(xAnchor / dxMain);
+  }
   let j = 0;
   let tOffset = 0;
   let xOffset = 0;
@@ -97,7 +110,8 @@ export function synthesizeSignal(curve: EngineeringCurve, spec: SpecimenSetup, m
   let frozenExt: number | null = null;
   let lastExt = 0;
   for (let k = 0; k < nMain; k++) {
-    const x = (k * xTotal) / (nMain - 1);
+    // the sample nearest the anchor moves onto it (by at most half a step: order is kept)
+    const x = k === kAnchor ? xAnchor : (k * xTotal) / (nMain - 1);
     while (j < nd - 2 && xd[j + 1] < x) j++;
     const span = xd[j + 1] - xd[j];
     const f = span > 0 ? Math.min(1, Math.max(0, (x - xd[j]) / span)) : 1;

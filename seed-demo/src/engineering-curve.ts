@@ -38,7 +38,13 @@ export interface CurveTruth {
   rp02Mpa: number;
   rt05Mpa: number;
   rehMpa: number | null;
+  /** the plateau level of the law (the mean of its serrations) */
   relMpa: number | null;
+  /** the lowest stress on the plateau (ISO 6892-1 ReL: lowest stress during plastic yielding,
+   *  the initial transient disregarded) */
+  relMinMpa: number | null;
+  /** engineering strain at the upper yield point */
+  rehStrain: number | null;
   /** yield-point extension, % (ISO 6892-1 Ae) */
   ypePct: number | null;
   fractureStressMpa: number;
@@ -136,6 +142,8 @@ export function buildEngineeringCurve(law: HardeningLaw, necking: NeckingSpec): 
   const g = new Growable();
   let reh: number | null = null;
   let rel: number | null = null;
+  let relMin: number | null = null;
+  let rehStrain: number | null = null;
   let ype: number | null = null;
   if (law.kind === 'plateau-swift') {
     const nEl = 600;
@@ -151,15 +159,19 @@ export function buildEngineeringCurve(law: HardeningLaw, necking: NeckingSpec): 
     }
     const eEnd = eH + law.ludersStrain;
     const nPl = 400;
+    relMin = law.relMpa;
     for (let i = 1; i <= nPl; i++) {
       const t = i / nPl;
       const e = eH + drop + t * (law.ludersStrain - drop);
       const serr = 0.7 * Math.sin(2 * Math.PI * 7 * t) + 0.3 * Math.sin(2 * Math.PI * 17 * t);
-      g.push(e, law.relMpa * (1 + law.serrationAmplitude * serr));
+      const s = law.relMpa * (1 + law.serrationAmplitude * serr);
+      relMin = Math.min(relMin, s);
+      g.push(e, s);
     }
     hardeningToMax(g, law, law.epsPlateauEnd);
     reh = law.rehMpa;
     rel = law.relMpa;
+    rehStrain = eH;
     ype = 100 * (eEnd - eH);
   } else {
     const sigStart = law.kind === 'voce' ? law.sigma0Mpa : law.sigma0Mpa * Math.pow(1e-6 / 0.002, 1 / law.m);
@@ -203,6 +215,8 @@ export function buildEngineeringCurve(law: HardeningLaw, necking: NeckingSpec): 
       rt05Mpa: rt05,
       rehMpa: reh,
       relMpa: rel,
+      relMinMpa: relMin,
+      rehStrain,
       ypePct: ype,
       fractureStressMpa: sf,
     },

@@ -186,6 +186,14 @@ describe('demo scenario generator', () => {
       // maximum of the noisy force within 0.6 % of the law's Rm·S0 (noise sd ≤ 0.12 % of Fmax)
       expect(fMax / (Number(t.rm_mpa) * Number(t.area_mm2))).toBeCloseTo(1, 2);
       expect(rows.length).toBeGreaterThanOrEqual(300);
+      if (t.law === 'plateau-swift') {
+        // the upper yield point is recorded, not missed between samples
+        const E = Number(t.modulus_gpa) * 1000;
+        const eUpTo = Number(t.reh_mpa) / E + 0.003;
+        let fUpper = 0;
+        for (const r of rows) if (r[2] / Number(t.gauge_length_mm) < eUpTo) fUpper = Math.max(fUpper, r[1] * scale);
+        expect(fUpper / (Number(t.reh_mpa) * Number(t.area_mm2))).toBeCloseTo(1, 2);
+      }
       checked++;
     }
     expect(checked).toBeGreaterThan(1000);

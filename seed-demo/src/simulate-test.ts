@@ -105,6 +105,6 @@ export function simulateTest(
   const loopAt = opts.loop ? loopStrain(draw, curve) : null;
   const removedAt = opts.removeExtensometer ? rng.uniform(0.6, 0.95) * (curve.truth.agtPct / 100) : null;
   const machine = drawMachine(specimen.parallelLengthMm, rng);
-  const signal = synthesizeSignal(curve, specimen, machine, { points: opts.points, loopAtStrain: loopAt, extensometerRemovedAtStrain: removedAt }, rng);
+  const signal = synthesizeSignal(curve, specimen, machine, { points: opts.points, loopAtStrain: loopAt, extensometerRemovedAtStrain: removedAt, anchorStrain: curve.truth.rehStrain }, rng);
   return { draw, curve, signal, loopAtStrain: loopAt, extensometerRemovedAtStrain: removedAt };
 }
