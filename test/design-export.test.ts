@@ -8,8 +8,10 @@ import {
   designCurvesToJson,
   designCurveToCsv,
   designCurveToJson,
+  engineeringToCsv,
   idealizedToCsv,
   parseDesignCurveCsv,
+  parseEngineeringCsv,
   parseDesignCurveJson,
   parseDesignCurvesJson,
   parseIdealizedCsv,
@@ -79,6 +81,19 @@ describe('idealized CSV', () => {
     expect(back.value.idealized).toEqual(c.idealized);
     expect(back.value.provenance).toEqual(c.provenance);
     expect(idealizedToCsv(c)).toContain(DESIGN_CAUTION);
+  });
+});
+
+describe('engineering CSV', () => {
+  it('round-trips the engineering counterparts', () => {
+    const c = sample(14);
+    const back = parseEngineeringCsv(engineeringToCsv(c));
+    expect(back.ok).toBe(true);
+    if (!back.ok) return;
+    expect(back.value.engineering).toEqual(c.engineering);
+    expect(back.value.plastic_strain).toEqual(c.plastic_strain);
+    expect(back.value.extrapolated).toEqual(c.extrapolated);
+    expect(engineeringToCsv(c)).toContain(DESIGN_CAUTION);
   });
 });
 

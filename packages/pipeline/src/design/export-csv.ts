@@ -23,6 +23,7 @@ export interface DesignCurveTable {
   extrapolated_from: number | null;
   e_mpa: number | null;
   characteristic_yield_mpa: number | null;
+  median_yield_mpa: number | null;
   warnings: string[];
   provenance: DesignProvenance;
   plastic_strain: number[];
@@ -41,6 +42,7 @@ function commonHeader(curve: DesignCurve): [string, unknown][] {
     ['extrapolated_from', curve.extrapolated_from],
     ['e_mpa', curve.e_mpa],
     ['characteristic_yield_mpa', curve.characteristic_yield_mpa],
+    ['median_yield_mpa', curve.median_yield_mpa],
     ['warnings', curve.warnings],
     ['provenance', curve.provenance],
   ];
@@ -76,6 +78,7 @@ interface CommonFields {
   extrapolated_from: number | null;
   e_mpa: number | null;
   characteristic_yield_mpa: number | null;
+  median_yield_mpa: number | null;
   warnings: string[];
   provenance: DesignProvenance;
 }
@@ -86,7 +89,7 @@ function readCommon(h: Header): DesignResult<CommonFields> {
   const n = h.get('n');
   if (typeof n !== 'number' || !Number.isInteger(n) || n < 0) return fail('bad_header', 'header "n" must be a count');
   const nullable: Record<string, number | null> = {};
-  for (const key of ['valid_to_plastic_strain', 'characteristic_uniform_plastic_strain', 'extrapolated_from', 'e_mpa', 'characteristic_yield_mpa']) {
+  for (const key of ['valid_to_plastic_strain', 'characteristic_uniform_plastic_strain', 'extrapolated_from', 'e_mpa', 'characteristic_yield_mpa', 'median_yield_mpa']) {
     const v = numOrNull(h, key);
     if (v === undefined) return fail('bad_header', `header "${key}" must be a number or null`);
     nullable[key] = v;
@@ -106,6 +109,7 @@ function readCommon(h: Header): DesignResult<CommonFields> {
       extrapolated_from: nullable.extrapolated_from,
       e_mpa: nullable.e_mpa,
       characteristic_yield_mpa: nullable.characteristic_yield_mpa,
+      median_yield_mpa: nullable.median_yield_mpa,
       warnings: warnings as string[],
       provenance: prov as DesignProvenance,
     },
@@ -252,4 +256,59 @@ export function parseIdealizedCsv(text: string): DesignResult<IdealizedTable> {
       },
     },
   };
+}
+
+export const ENGINEERING_CSV_TITLE = 'fractile engineering counterparts, csv format 1';
+export const ENGINEERING_CSV_COLUMNS = ['plastic_strain', 'median_strain', 'median_stress_mpa', 'characteristic_strain', 'characteristic_stress_mpa', 'extrapolated'] as const;
+
+/**
+ * The engineering counterparts (engineering strain, total, and engineering stress in MPa) of the
+ * median and characteristic curves, against the true plastic strain they come from. Empty table
+ * where E is not known.
+ */
+export function engineeringToCsv(curve: DesignCurve): string {
+  const lines = headerLines(ENGINEERING_CSV_TITLE, commonHeader(curve));
+  lines.push(ENGINEERING_CSV_COLUMNS.join(','));
+  const eng = curve.engineering;
+  if (eng) {
+    for (let i = 0; i < curve.plastic_strain.length; i++) {
+      lines.push(
+        `${curve.plastic_strain[i]},${eng.median.strain[i]},${eng.median.stress_mpa[i]},${eng.characteristic.strain[i]},${eng.characteristic.stress_mpa[i]},${curve.extrapolated[i] ? 'true' : 'false'}`,
+      );
+    }
+  }
+  return lines.join('\n') + '\n';
+}
+
+export interface EngineeringTable extends CommonFields {
+  plastic_strain: number[];
+  engineering: DesignCurve['engineering'];
+  extrapolated: boolean[];
+}
+
+export function parseEngineeringCsv(text: string): DesignResult<EngineeringTable> {
+  const header = parseHeader(text);
+  if (!header.ok) return header;
+  if (header.value.title !== ENGINEERING_CSV_TITLE) return fail('bad_title', `first line must read "# ${ENGINEERING_CSV_TITLE}"`, 1, 1);
+  const common = readCommon(header.value.values);
+  if (!common.ok) return common;
+  const rows = readRows(text, header.value.bodyLine, ENGINEERING_CSV_COLUMNS);
+  if (!rows.ok) return rows;
+  const cols: number[][] = [[], [], [], [], []];
+  const flags: boolean[] = [];
+  for (let r = 0; r < rows.value.length; r++) {
+    const row = rows.value[r];
+    const line = header.value.bodyLine + 1 + r;
+    for (let c = 0; c < 5; c++) {
+      const v = Number(row[c]);
+      if (row[c].trim() === '' || !Number.isFinite(v)) return fail('bad_number', `column ${ENGINEERING_CSV_COLUMNS[c]}: "${row[c]}" is not a number`, line, c + 1);
+      cols[c].push(v);
+    }
+    const flag = row[5].trim();
+    if (flag !== 'true' && flag !== 'false') return fail('bad_flag', `column extrapolated: "${row[5]}" is not true or false`, line, 6);
+    flags.push(flag === 'true');
+  }
+  const engineering =
+    rows.value.length > 0 ? { median: { strain: cols[1], stress_mpa: cols[2] }, characteristic: { strain: cols[3], stress_mpa: cols[4] } } : null;
+  return { ok: true, value: { ...common.value, plastic_strain: cols[0], engineering, extrapolated: flags } };
 }

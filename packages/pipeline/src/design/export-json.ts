@@ -70,6 +70,7 @@ function checkCurve(v: unknown, path: string): DesignCurve {
   numOrNull(o.extrapolated_from, `${path}.extrapolated_from`);
   numOrNull(o.e_mpa, `${path}.e_mpa`);
   numOrNull(o.characteristic_yield_mpa, `${path}.characteristic_yield_mpa`);
+  numOrNull(o.median_yield_mpa, `${path}.median_yield_mpa`);
   if (o.extrapolation !== null) {
     const e = obj(o.extrapolation, `${path}.extrapolation`);
     str(e.law, `${path}.extrapolation.law`);

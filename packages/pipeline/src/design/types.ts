@@ -106,8 +106,11 @@ export interface DesignCurve {
   extrapolated: boolean[];
   e_mpa: number | null;
   characteristic_yield_mpa: number | null;
+  /** The yield the median curve starts at (median of the tests' yields unless given). */
+  median_yield_mpa: number | null;
   engineering: { median: EngineeringCurve; characteristic: EngineeringCurve } | null;
   idealized: IdealizedCurves | null;
+  /** One line per finding, `code: message` (codes: few_tests, small_sample, no_valid_range, …). */
   warnings: string[];
   provenance: DesignProvenance;
 }
