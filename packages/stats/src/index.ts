@@ -39,3 +39,5 @@ export type {
 export { correlationMatrices, MIN_N_CORRELATION } from './correlation.ts';
 export type { CorrelationMatrices } from './correlation.ts';
 export { isotonicNonDecreasing } from './isotonic.ts';
+export { sampleCorrelated } from './sample-correlated.ts';
+export type { CorrelatedSample, SampleError } from './sample-correlated.ts';
