@@ -11,6 +11,7 @@ import {
   welchAnova,
   welchTTest,
 } from '../packages/stats/src/monitor/index.ts';
+import type { MonitorError } from '../packages/stats/src/monitor/index.ts';
 import { scipy } from './monitor-scipy.ts';
 
 type Groups = Record<string, number[]>;
@@ -31,9 +32,12 @@ function sample(seed: number, spec: [string, number, number, number][], round?: 
   return g;
 }
 
-function ok<T extends object>(x: T | { code: string; message: string }): T {
-  if ('code' in x) throw new Error(`${x.code}: ${x.message}`);
-  return x as T;
+function ok<T extends object>(x: T): Exclude<T, MonitorError> {
+  if ('code' in x) {
+    const e = x as unknown as MonitorError;
+    throw new Error(`${e.code}: ${e.message}`);
+  }
+  return x as Exclude<T, MonitorError>;
 }
 
 // Welch (1951), Biometrika 38:330, formula evaluated in Python, p from scipy.stats.f.sf.

@@ -89,7 +89,9 @@ describe('alerts and change points on one drifting supplier', () => {
     expect(Math.abs(c.index - 150)).toBeLessThanOrEqual(10);
     expect(c.ci[0]).toBeLessThan(-18);
     expect(c.ci[1]).toBeGreaterThan(-18);
-    expect(c.location_ci?.date[0] <= c.date && c.date <= (c.location_ci?.date[1] ?? '')).toBe(true);
+    expect(c.location_ci).not.toBeNull();
+    const loc = c.location_ci as NonNullable<typeof c.location_ci>;
+    expect(loc.date[0] <= c.date && c.date <= loc.date[1]).toBe(true);
     const alert = m.alerts.find((x) => x.rule === 'change-point-down' && x.first_index === c.index);
     expect(alert?.magnitude).toBeCloseTo(c.shift, 12);
     expect(alert?.magnitude_unit).toBe('property-units');
