@@ -160,6 +160,7 @@ function describePlateau(strain: ArrayLike<number>, stressMpa: ArrayLike<number>
     rel = Infinity;
     for (let j = trEnd; j <= plateauEnd; j++) { const v = at(j); if (v < rel) { rel = v; relIndex = j; } }
   }
+  if (rel > sp) { rel = sp; relIndex = p; } // a flat plateau sampled by a few points: ReL = ReH
   return {
     rehIndex: p, rehMpa: sp, relIndex, relMpa: rel, plateauEndIndex: plateauEnd, plateauEndStrain: endStrain,
     ypeStrain: Math.max(0, endStrain - strain[p]), kind,

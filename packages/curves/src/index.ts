@@ -24,5 +24,5 @@ export { resampleOnGrid } from './grid.ts';
 export { reduceCurve } from './reduce.ts';
 export { propertiesFromSummary, type SummaryInput } from './summary.ts';
 export {
-  seededRandom, seededNormal, rambergOsgoodCurve, hollomonCurve, plateauCurve, type SyntheticCommon, type SyntheticCurve,
+  seededRandom, seededNormal, rambergOsgoodCurve, hollomonCurve, plateauCurve, bilinearCurve, type SyntheticCommon, type SyntheticCurve,
 } from './synthetic.ts';

@@ -57,6 +57,9 @@ export interface SyntheticCommon {
   neckStrain?: number;
   /** fraction of Rm at fracture */
   fractureFraction?: number;
+  /** engineering strains (before maximum force) at which an unload–reload loop is inserted:
+   * elastic unloading to 10 % of the stress and reloading along the same line, 20 points each way */
+  loopsAt?: number[];
 }
 
 export interface SyntheticCurve {
@@ -81,10 +84,20 @@ function build(c: SyntheticCommon, yieldStrain: number, eU: number, stressAt: (e
   const stress: number[] = [];
   const nEl = o.elasticPoints;
   for (let i = 0; i < nEl; i++) { const e = (yieldStrain * i) / nEl; strain.push(e); stress.push(stressAt(e)); }
-  const nPl = o.points - nEl - 3;
+  const nPl = o.points - nEl - 3 - 40 * (o.loopsAt?.length ?? 0);
   const eEnd = eU + o.neckStrain;
+  const loops = [...(o.loopsAt ?? [])].sort((a, b) => a - b);
   for (let i = 0; i <= nPl; i++) {
     const e = yieldStrain + ((eEnd - yieldStrain) * i) / nPl;
+    if (loops.length > 0 && e >= loops[0] && e <= eU && strain.length > 0) {
+      loops.shift();
+      const e1 = strain[strain.length - 1], s1 = stress[stress.length - 1];
+      for (let k = 1; k <= 40; k++) {
+        const f = k <= 20 ? 1 - (0.9 * k) / 20 : 0.1 + (0.9 * (k - 20)) / 20;
+        strain.push(e1 - ((1 - f) * s1) / o.eMpa);
+        stress.push(f * s1);
+      }
+    }
     strain.push(e);
     if (e <= eU) stress.push(stressAt(e));
     else {
@@ -203,4 +216,16 @@ export function plateauCurve(o: SyntheticCommon & { rehMpa: number; relMpa: numb
   const etU = etL - Math.log(ex) / b;
   const eU = Math.expm1(etU);
   return build(o, eH, eU, stressAt, { reh_mpa: o.rehMpa, rel_mpa: o.relMpa, ype_strain: o.ypeStrain, plateau_end_strain: eL }, true);
+}
+
+/**
+ * Bilinear curve: linear elastic to σy, then linear hardening with slope H (engineering) up to
+ * maximum force at `uniformStrain`, then necking and fracture.
+ */
+export function bilinearCurve(o: SyntheticCommon & { yieldMpa: number; hardeningMpa: number; uniformStrain?: number }): SyntheticCurve {
+  const E = o.eMpa ?? DEF.eMpa;
+  const ey = o.yieldMpa / E;
+  const eU = o.uniformStrain ?? 0.1;
+  const stressAt = (x: number) => (x <= ey ? E * x : o.yieldMpa + o.hardeningMpa * (x - ey));
+  return build(o, ey, eU, stressAt, { yield_mpa: o.yieldMpa, hardening_mpa: o.hardeningMpa }, false);
 }
