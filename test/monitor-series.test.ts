@@ -1,7 +1,7 @@
 // monitorSeries end to end on seeded, invented series: detection delay of a 1σ drop against the
 // published ARLs, alert contents, change points, capability, defaults, degenerate input, speed.
 import { describe, expect, it } from 'vitest';
-import { createMonitorRandom, monitorSeries } from '../packages/stats/src/monitor/index.ts';
+import { createMonitorRandom, monitorSeries, orderSeriesPoints } from '../packages/stats/src/monitor/index.ts';
 import type { SeriesPoint } from '../packages/stats/src/monitor/index.ts';
 
 function makeSeries(seed: number, n: number, meanMpa: number, sdMpa: number, drop: { at: number; byMpa: number } | null): SeriesPoint[] {
@@ -155,5 +155,20 @@ describe('options and degenerate input', () => {
     const ms = performance.now() - t0;
     console.log(`monitorSeries: ${(ms / 400).toFixed(2)} ms per 250-point series, ${ms.toFixed(0)} ms for 400`);
     expect(ms).toBeLessThan(5000);
+  });
+});
+
+describe('orderSeriesPoints', () => {
+  it('orders by test date, then heat, then test id, without changing the input', () => {
+    const input: SeriesPoint[] = [
+      { value: 1, date: '2024-03-02', testId: 'B', heat: 'H2' },
+      { value: 2, date: '2024-03-01', testId: 'C', heat: 'H9' },
+      { value: 3, date: '2024-03-02', testId: 'A', heat: 'H1' },
+      { value: 4, date: '2024-03-02', testId: 'D', heat: null },
+      { value: 5, date: '2024-03-02', testId: 'C', heat: 'H1' },
+    ];
+    const out = orderSeriesPoints(input);
+    expect(out.map((p) => p.value)).toEqual([2, 4, 3, 5, 1]);
+    expect(input[0].value).toBe(1);
   });
 });

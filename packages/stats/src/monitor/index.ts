@@ -1,5 +1,6 @@
 // Drift monitoring of supplier series: control charts, change points, capability, comparisons.
 export type { SeriesPoint, BaselineSpec, MonitorOptions, EwmaParams, CusumParams, ChangePointOptions, MonitorError } from './types.ts';
+export { orderSeriesPoints } from './series-order.ts';
 export { createMonitorRandom } from './random.ts';
 export type { MonitorRandom } from './random.ts';
 export { selectBaseline, baselineStats, individualsLimits, movingRanges, MR_D2, MR_D4, INDIVIDUALS_E2, DEFAULT_BASELINE_N } from './individuals-chart.ts';

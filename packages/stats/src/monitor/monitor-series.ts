@@ -9,9 +9,11 @@
  * rolling window 30 (capability from 10 points on); capability alert below Cpk 1.33 (common
  * practice).
  * Units: values, limits, shifts in the property's units; z, EWMA, CUSUM and margins in SD.
+ * Input must already be in time order (see orderSeriesPoints).
  * Degenerate input: an empty series, or a baseline with no spread, gives status 'degenerate',
  * an error value and no chart points (capability and change points are still computed where
- * they can be). O(n) per series apart from PELT (O(n) expected, O(n²) worst case) and the
+ * they can be); a non-finite value gives status 'degenerate', one error per such point and
+ * nothing else, so the caller drops or fixes those points. O(n) per series apart from PELT (O(n) expected, O(n²) worst case) and the
  * bootstrap (O(B·n) per change point).
  */
 import type { MonitorError, MonitorOptions, SeriesPoint } from './types.ts';
