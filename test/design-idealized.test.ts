@@ -1,4 +1,5 @@
 // Idealized curves and engineering counterparts of characteristic curves; sources beside each check.
+import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import {
   characteristicCurve,
@@ -61,6 +62,21 @@ describe('Ramberg–Osgood parameter set', () => {
     expect(rambergOsgoodPlasticStrain(ro.sigma0_mpa, ro.sigma0_mpa, ro.m)).toBe(0.002);
   });
 
+  it('fits a noisy curve as numpy.polyfit does in log–log', () => {
+    // Source: numpy.polyfit (least squares) of ln σ on ln(εp/0.002), via /usr/bin/python3.
+    const x = grid(0.001, 0.05, 0.001);
+    const y = x.map((e, i) => 300 * Math.pow(e / 0.002, 1 / 7) * (1 + 0.01 * Math.sin(3 * i)));
+    const ref = JSON.parse(
+      execFileSync('/usr/bin/python3', ['-c', 'import json,sys,numpy as np\nd=json.load(sys.stdin)\nu,a=np.polyfit(np.log(np.array(d["x"])/0.002),np.log(d["y"]),1)\nprint(json.dumps([float(u),float(a)]))'], {
+        input: JSON.stringify({ x, y }),
+        encoding: 'utf8',
+      }),
+    ) as [number, number];
+    const fit = fitRambergOsgoodPlastic(x, y)!;
+    expect(fit.m).toBeCloseTo(1 / ref[0], 9);
+    expect(fit.sigma0Mpa).toBeCloseTo(Math.exp(ref[1]), 8);
+  });
+
   it('returns null without hardening', () => {
     expect(fitRambergOsgoodPlastic([0.001, 0.002, 0.003], [300, 300, 300])).toBeNull();
   });
@@ -80,6 +96,38 @@ describe('multilinear idealization', () => {
     });
     const { indices } = multilinearBreakpoints(x, y, 5);
     expect(indices.map((i) => x[i])).toEqual(knots);
+  });
+
+  it('matches an exhaustive search of all breakpoint sets on a small curve', () => {
+    // Source: exhaustive enumeration of every choice of interior breakpoints (the definition of
+    // the optimum), against the dynamic programme.
+    const x = grid(0, 0.011, 0.001);
+    const y = x.map((e) => 320 + 2000 * Math.sqrt(e) + 30 * Math.sin(900 * e));
+    const sse = (idx: number[]) => {
+      let s = 0;
+      for (let k = 0; k + 1 < idx.length; k++) {
+        const [a, b] = [idx[k], idx[k + 1]];
+        for (let i = a; i <= b; i++) {
+          const f = y[a] + ((y[b] - y[a]) * (x[i] - x[a])) / (x[b] - x[a]);
+          s += (y[i] - f) ** 2;
+        }
+      }
+      return s;
+    };
+    for (const nPts of [3, 4, 5]) {
+      let best = Infinity;
+      const rec = (start: number, left: number, acc: number[]) => {
+        if (left === 0) {
+          best = Math.min(best, sse([0, ...acc, x.length - 1]));
+          return;
+        }
+        for (let i = start; i < x.length - 1; i++) rec(i + 1, left - 1, [...acc, i]);
+      };
+      rec(1, nPts - 2, []);
+      const { indices } = multilinearBreakpoints(x, y, nPts);
+      expect(indices.length).toBe(nPts);
+      expect(sse(indices)).toBeCloseTo(best, 6);
+    }
   });
 
   it('has N points on the characteristic curve, first and last included', () => {

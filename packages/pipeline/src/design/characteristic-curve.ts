@@ -101,21 +101,28 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
 
   // usable tests: stresses on this grid with at least one finite value
   const seen = new Set<string>();
+  const mismatched: string[] = [];
+  const empty: string[] = [];
+  const duplicates: string[] = [];
   const tests: { id: string; stress: (number | null)[]; src: TestGridCurve }[] = [];
   for (const t of input.tests) {
     if (t.stress_mpa.length !== grid.length) {
-      warnings.push(`grid_mismatch: test ${t.test_id} has ${t.stress_mpa.length} stresses for ${grid.length} grid points; left out`);
+      mismatched.push(t.test_id);
       continue;
     }
     const stress = t.stress_mpa.map((v) => (v !== null && Number.isFinite(v) ? v : null));
     if (!stress.some((v) => v !== null)) {
-      warnings.push(`no_curve: test ${t.test_id} has no stress on the grid; left out`);
+      empty.push(t.test_id);
       continue;
     }
-    if (seen.has(t.test_id)) warnings.push(`duplicate_test: test id ${t.test_id} appears more than once`);
+    if (seen.has(t.test_id)) duplicates.push(t.test_id);
     seen.add(t.test_id);
     tests.push({ id: t.test_id, stress, src: t });
   }
+  const list = (ids: string[]) => ids.slice(0, 5).join(', ') + (ids.length > 5 ? `, … (${ids.length} in all)` : '');
+  if (mismatched.length > 0) warnings.push(`grid_mismatch: ${mismatched.length} test(s) with a stress count other than the ${grid.length} grid points left out: ${list(mismatched)}`);
+  if (empty.length > 0) warnings.push(`no_curve: ${empty.length} test(s) without stress on the grid left out: ${list(empty)}`);
+  if (duplicates.length > 0) warnings.push(`duplicate_test: test id(s) appearing more than once: ${list(duplicates)}`);
   const n = tests.length;
   const prov = designProvenance(input.group, tests.map((t) => t.id), opts, provenance);
   if (n < Math.max(2, opts.minTestsPerPoint)) {
