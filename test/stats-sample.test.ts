@@ -2,7 +2,7 @@
 // SciPy (scipy.stats.kstest, scipy.stats.spearmanr) on the generated sample.
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { sampleCorrelated, type CorrelatedSample } from '@fractile/stats';
+import { sampleCorrelated, type CorrelatedSample, type FitResult } from '@fractile/stats';
 
 /** Run a Python snippet with Debian's interpreter (it has SciPy); `input` arrives as `data`. */
 function scipy<T>(code: string, input: unknown = null): T {
@@ -12,10 +12,10 @@ function scipy<T>(code: string, input: unknown = null): T {
   return JSON.parse(r.stdout) as T;
 }
 
-const marginals = [
-  { model: 'normal' as const, params: { mu: 520, sigma: 20 } },
-  { model: 'lognormal' as const, params: { mu: Math.log(400), sigma: 0.05 } },
-  { model: 'weibull' as const, params: { shape: 8, scale: 18 } },
+const marginals: Pick<FitResult, 'model' | 'params'>[] = [
+  { model: 'normal', params: { mu: 520, sigma: 20 } },
+  { model: 'lognormal', params: { mu: Math.log(400), sigma: 0.05 } },
+  { model: 'weibull', params: { shape: 8, scale: 18 } },
 ];
 const target = [
   [1, 0.8, -0.3],

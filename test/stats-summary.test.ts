@@ -179,6 +179,15 @@ describe('summarizeProperty for small and degenerate groups', () => {
     expect(s.fits.map((f) => f.model)).toEqual(['normal']);
     expect(find(s, 'tolerance-lognormal').note).toMatch(/> 0/);
   });
+  it('levels outside (0, 1) and a bad prior V give null values with a reason, never NaN', () => {
+    const x = Array.from({ length: 30 }, (_, i) => 350 + ((i * 13) % 17));
+    const s = summarizeProperty(x, { levels: [{ coverage: 1.2, confidence: 0.9 }], priorV: -0.1 });
+    expect(find(s, 'tolerance-normal', 1.2, 0.9).value).toBeNull();
+    expect(find(s, 'tolerance-normal', 1.2, 0.9).note).toMatch(/not computable/);
+    expect(find(s, 'en1990-v-known', 0.95, null).value).toBeNull();
+    expect(find(s, 'en1990-v-known', 0.95, null).note).toMatch(/prior V/);
+    expect(JSON.parse(JSON.stringify(s))).toEqual(s);
+  });
   it('all values equal: no spread, no fits, warning', () => {
     const s = summarizeProperty([5, 5, 5, 5, 5, 5]);
     expect(s.sd).toBe(0);

@@ -58,8 +58,8 @@ export interface CharacteristicValue {
   note: string;
   /** The factor used (k_n, k, or the order-statistic rank r); null when not applicable. */
   factor: number | null;
-  /** Smallest n at which the method gives a value here. */
-  min_n: number;
+  /** Smallest n at which the method gives a value here; null when the level admits none. */
+  min_n: number | null;
 }
 
 export interface SummaryLevel {
@@ -216,7 +216,8 @@ export function summarizeProperty(values: ArrayLike<number>, opts: SummaryOption
   // Characteristic values.
   const characteristic: CharacteristicValue[] = [];
   {
-    const ok = n >= MIN_N_EN1990_KNOWN && mean !== null;
+    const priorOk = priorV > 0 && priorV < 1;
+    const ok = n >= MIN_N_EN1990_KNOWN && mean !== null && priorOk;
     const kn = ok ? en1990Kn(n, true) : NaN;
     characteristic.push({
       method: 'en1990-v-known',
@@ -225,7 +226,9 @@ export function summarizeProperty(values: ArrayLike<number>, opts: SummaryOption
       value: ok ? mean * (1 - kn * priorV) : null,
       note: ok
         ? `EN 1990 Annex D 5 % fractile, normal model, V known = ${priorV} (prior), k_n = ${fmt(kn, 4)}${rejectionNote('normal')}`
-        : 'no values',
+        : priorOk
+          ? 'no values'
+          : `the prior V must lie in (0, 1), got ${priorV}`,
       factor: ok ? kn : null,
       min_n: MIN_N_EN1990_KNOWN,
     });
@@ -304,8 +307,17 @@ export function summarizeProperty(values: ArrayLike<number>, opts: SummaryOption
           ? `distribution-free bound needs n ≥ ${minN} for ${lvl} (n = ${n})`
           : `distribution-free bound (ISO 16269-6): order statistic x_(${r}) of ${n}, attained confidence ${fmt(orderStatisticConfidence(n, r, coverage), 4)}, ${lvl}`,
       factor: r,
-      min_n: minN,
+      min_n: Number.isFinite(minN) ? minN : null,
     });
+  }
+  // A level outside (0, 1) (or any other non-computable input) gives no number, never NaN.
+  for (const c of characteristic) {
+    if (c.value !== null && !Number.isFinite(c.value)) {
+      c.value = null;
+      c.factor = null;
+      c.min_n = c.min_n !== null && Number.isFinite(c.min_n) ? c.min_n : null;
+      c.note = `not computable for coverage ${c.coverage}, confidence ${c.confidence} (levels must lie in (0, 1))`;
+    }
   }
   if (n >= 1 && n < MIN_N_TOLERANCE) warnings.push(`n = ${n} < ${MIN_N_TOLERANCE}: no tolerance limits`);
   else if (n >= MIN_N_TOLERANCE && n < MIN_N_WEIBULL_TOLERANCE && fw) {
