@@ -8,6 +8,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { CsvFileWriter } from './csv-writer.ts';
 import { formatCurveCsv } from './curve-format.ts';
+import { AsciiBuffer } from './ascii-buffer.ts';
 import { dayOf, isoOf } from './dates.ts';
 import { Rng, mixSeed } from './random.ts';
 import { GRADES, MILLS, WINDOW_END, WINDOW_START } from './scenario.ts';
@@ -39,6 +40,7 @@ export function generateBenchmarkSet(opts: BenchmarkOptions): BenchmarkSet {
   const end = dayOf(WINDOW_END);
   const steel = GRADES.filter((g) => g.family === 'steel');
   const mills = MILLS.filter((m) => m.grades.some((g) => steel.some((s) => s.label === g.grade)));
+  const buffer = new AsciiBuffer();
   for (let i = 0; i < opts.tests; i++) {
     const rng = new Rng(mixSeed(seed, i + 1));
     const grade = steel[i % steel.length];
@@ -51,7 +53,7 @@ export function generateBenchmarkSet(opts: BenchmarkOptions): BenchmarkSet {
     const sim = simulateTest(grade, strength, 0, 0, { areaMm2: s0, gaugeLengthMm: l0, parallelLengthMm: l0 + 1.5 * Math.sqrt(s0) }, { withSignal: true, points, loop: false, removeExtensometer: false }, rng);
     const id = `BEN-${String(i + 1).padStart(6, '0')}`;
     const day = start + Math.floor(((end - start) * i) / Math.max(1, opts.tests));
-    writeFileSync(join(outDir, 'curves', `${id}.csv`), formatCurveCsv(sim.signal!, 'kn-mm', { testId: id, comments: [`benchmark record ${id} (invented data)`], areaMm2: s0, gaugeLengthMm: l0, labName: '', testedOn: '' }));
+    writeFileSync(join(outDir, 'curves', `${id}.csv`), formatCurveCsv(sim.signal!, 'kn-mm', { testId: id, comments: [`benchmark record ${id} (invented data)`], areaMm2: s0, gaugeLengthMm: l0, labName: '', testedOn: '' }, buffer));
     w.write([id, 'BENCH', grade.label, mill.name, `B-${Math.floor(i / 4)}`, isoOf(day), 'flat', null, t.toFixed(2), b.toFixed(2), null, l0, 'transverse', 21, `curves/${id}.csv`, null, null, null, null, null]);
   }
   w.close();

@@ -10,6 +10,7 @@
  */
 import type { Signal } from './curve-signal.ts';
 import type { CurveLayout } from './scenario.ts';
+import { AsciiBuffer } from './ascii-buffer.ts';
 
 export const LBF_N = 4.4482216152605;
 export const IN_MM = 25.4;
@@ -61,44 +62,62 @@ export function layoutHeader(layout: CurveLayout): string[] {
   }
 }
 
-export function formatCurveCsv(sig: Signal, layout: CurveLayout, meta: CurveFileMeta): string {
-  const lines: string[] = [];
+/** The curve file's bytes (UTF-8; the numbers are ASCII). One buffer may be passed for reuse. */
+export function formatCurveCsv(sig: Signal, layout: CurveLayout, meta: CurveFileMeta, out: AsciiBuffer = new AsciiBuffer()): Buffer {
+  out.reset();
   const n = sig.length;
   const { timeS: t, forceN: f, extensionMm: x, crossheadMm: c } = sig;
+  const COMMA = 0x2c;
+  const NL = 0x0a;
   if (layout === 'foreign') {
-    lines.push(`${meta.labName} - strekkprove`);
-    lines.push(`Prove ${meta.testId}; dato ${meta.testedOn}; L0 ${meta.gaugeLengthMm.toFixed(2).replace('.', ',')} mm`);
-    lines.push(FOREIGN_HEADER.join(';'));
+    const SEMI = 0x3b;
+    out.text(`${meta.labName} - strekkprove\n`);
+    out.text(`Prove ${meta.testId}; dato ${meta.testedOn}; L0 ${meta.gaugeLengthMm.toFixed(2).replace('.', ',')} mm\n`);
+    out.text(FOREIGN_HEADER.join(';') + '\n');
     for (let i = 0; i < n; i++) {
-      lines.push(`${t[i].toFixed(3)};${(f[i] / 1000).toFixed(3)};${c[i].toFixed(4)};${x[i].toFixed(4)}`.replace(/\./g, ','));
+      out.fixed(t[i], 3, COMMA);
+      out.byte(SEMI);
+      out.fixed(f[i] / 1000, 3, COMMA);
+      out.byte(SEMI);
+      out.fixed(c[i], 4, COMMA);
+      out.byte(SEMI);
+      out.fixed(x[i], 4, COMMA);
+      out.byte(NL);
     }
-    lines.push('# slutt');
-    return lines.join('\n') + '\n';
+    out.text('# slutt\n');
+    return Buffer.from(out.bytes());
   }
-  for (const cm of meta.comments) lines.push(`# ${cm}`);
-  lines.push(layoutHeader(layout).join(','));
+  for (const cm of meta.comments) out.text(`# ${cm}\n`);
+  out.text(layoutHeader(layout).join(',') + '\n');
+  // per layout: the two or three channels after time, as (values, scale, decimals)
+  let cols: [ArrayLike<number>, number, number][];
   switch (layout) {
     case 'kn-mm':
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${(f[i] / 1000).toFixed(3)},${x[i].toFixed(4)}`);
+      cols = [[f, 1e-3, 3], [x, 1, 4]];
       break;
     case 'n-mm':
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${f[i].toFixed(1)},${x[i].toFixed(4)}`);
+      cols = [[f, 1, 1], [x, 1, 4]];
       break;
     case 'lbf-in':
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${(f[i] / LBF_N).toFixed(1)},${(x[i] / IN_MM).toFixed(6)}`);
+      cols = [[f, 1 / LBF_N, 1], [x, 1 / IN_MM, 6]];
       break;
-    case 'stress-strain': {
-      const a = meta.areaMm2;
-      const l0 = meta.gaugeLengthMm;
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${(f[i] / a).toFixed(3)},${((100 * x[i]) / l0).toFixed(5)}`);
+    case 'stress-strain':
+      cols = [[f, 1 / meta.areaMm2, 3], [x, 100 / meta.gaugeLengthMm, 5]];
       break;
-    }
     case 'crosshead-only':
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${(f[i] / 1000).toFixed(3)},${c[i].toFixed(4)}`);
+      cols = [[f, 1e-3, 3], [c, 1, 4]];
       break;
     case 'extensometer-removed':
-      for (let i = 0; i < n; i++) lines.push(`${t[i].toFixed(3)},${(f[i] / 1000).toFixed(3)},${x[i].toFixed(4)},${c[i].toFixed(4)}`);
+      cols = [[f, 1e-3, 3], [x, 1, 4], [c, 1, 4]];
       break;
   }
-  return lines.join('\n') + '\n';
+  for (let i = 0; i < n; i++) {
+    out.fixed(t[i], 3);
+    for (const [v, scale, d] of cols) {
+      out.byte(COMMA);
+      out.fixed(v[i] * scale, d);
+    }
+    out.byte(NL);
+  }
+  return Buffer.from(out.bytes());
 }

@@ -80,7 +80,7 @@ function hardeningToMax(out: Growable, law: HardeningLaw, p0: number): void {
     const p = p0 + u;
     return engFromTrue(p, lawTrueStress(law, p), E);
   };
-  const steps = 2500;
+  const steps = 1200;
   const uMin = 1e-6;
   const uMax = 0.6;
   const ratio = Math.pow(uMax / uMin, 1 / (steps - 1));
@@ -191,7 +191,7 @@ export function buildEngineeringCurve(law: HardeningLaw, necking: NeckingSpec): 
   const rm = g.s[iMax];
   const ef = necking.totalElongationRatio * eu;
   const sf = necking.fractureStressRatio * rm;
-  const nNeck = 500;
+  const nNeck = 300;
   for (let i = 1; i <= nNeck; i++) {
     const t = i / nNeck;
     g.push(eu + t * (ef - eu), rm - (rm - sf) * Math.pow(t, necking.exponent));

@@ -44,6 +44,6 @@ export function generateCurveCsv(opts: CurveCsvOptions): { text: string; truth: 
     gaugeLengthMm: opts.gaugeLengthMm,
     labName: 'demo',
     testedOn: '2024-01-01',
-  });
+  }).toString('utf8');
   return { text, truth: sim.curve.truth, law: sim.draw.law };
 }

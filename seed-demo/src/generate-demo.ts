@@ -12,6 +12,7 @@ import { existsSync, mkdirSync, readdirSync, rmSync, writeFileSync } from 'node:
 import { join, resolve } from 'node:path';
 import { CsvFileWriter } from './csv-writer.ts';
 import type { Cell } from './csv-writer.ts';
+import { AsciiBuffer } from './ascii-buffer.ts';
 import { FOREIGN_COLUMN_MAP, IN_MM, formatCurveCsv } from './curve-format.ts';
 import { dayOf, isoOf, yearOf } from './dates.ts';
 import { Rng, mixSeed } from './random.ts';
@@ -307,6 +308,7 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
     expectedRejections: 0,
   };
   const seqByLab = new Map<string, number>();
+  const curveBuffer = new AsciiBuffer();
   const driftStart = dayOf(DRIFT.from);
   const windowEnd = dayOf(WINDOW_END);
 
@@ -351,7 +353,7 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
       if (p.layout === 'extensometer-removed') comments.push('extensometer removed before fracture');
       writeFileSync(
         join(outDir, p.mill.key, curveRel),
-        formatCurveCsv(sim.signal, p.layout, { testId, comments, areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, labName: lab, testedOn: isoOf(p.day) }),
+        formatCurveCsv(sim.signal, p.layout, { testId, comments, areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, labName: lab, testedOn: isoOf(p.day) }, curveBuffer),
       );
       counts.curveFiles++;
       counts.curveTests++;

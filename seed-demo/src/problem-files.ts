@@ -105,7 +105,7 @@ export function writeProblemFiles(outDir: string, points: number, rng: Rng): Pro
   const grade = gradeDef('FX-360P');
   const sim = simulateTest(grade, 400, 0, 0, { areaMm2: 250, gaugeLengthMm: 80, parallelLengthMm: 112 }, { withSignal: true, points: Math.max(points, 400), loop: false, removeExtensometer: false }, rng);
   const meta = { testId: 'BRK-P', comments: COMMENTS, areaMm2: 250, gaugeLengthMm: 80, labName: '', testedOn: '' };
-  const good = formatCurveCsv(sim.signal!, 'kn-mm', meta);
+  const good = formatCurveCsv(sim.signal!, 'kn-mm', meta).toString('utf8');
   const goodLines = good.trimEnd().split('\n');
   const manifestRel = 'problems/manifest-problems.csv';
   const w = new CsvFileWriter(join(dir, 'manifest-problems.csv'), METRIC_HEADER);
