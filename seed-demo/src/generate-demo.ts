@@ -158,7 +158,7 @@ function plan(total: number, rng: Rng): Planned[] {
   const cells: { mill: MillDef; grade: GradeDef; n: number }[] = [];
   for (const mill of MILLS) for (const g of mill.grades) cells.push({ mill, grade: gradeDef(g.grade), n: Math.round(total * g.share) });
   const diff = total - cells.reduce((a, c) => a + c.n, 0);
-  cells[0].n += diff;
+  cells.reduce((a, c) => (c.n > a.n ? c : a), cells[0]).n += diff;
   const out: Planned[] = [];
   for (const mill of MILLS) {
     const mine: Planned[] = [];
