@@ -21,6 +21,8 @@ export const FONT = 'system-ui, "DejaVu Sans", "Liberation Sans", Arial, sans-se
 
 /** Vega-Lite configuration shared by every chart. */
 export const CHART_CONFIG: Config = {
+  // one accessible name per chart (set on the <svg>) instead of a description of every mark
+  aria: false,
   font: FONT,
   background: '#ffffff',
   padding: 6,

@@ -44,7 +44,7 @@ export function controlChartSpec(series: ControlSeries, context: ControlChartCon
   const alerts = mine(context.alerts);
   const changes = mine(context.change_points);
   const label = propertyLabel(series.property);
-  const width = options.width ?? 520;
+  const width = options.width ?? 470;
   const yTitle = propertyAxisTitle(series.property);
 
   const points: { t: number; value: number; test_id: string; status: Status }[] = [];

@@ -70,11 +70,11 @@ export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleC
   const limit = validTo !== null && Number.isFinite(validTo) ? [{ x: validTo, text: `validity limit ${formatFixed(validTo, 3)}` }] : [];
 
   return {
-    width: options.width ?? 560,
+    width: options.width ?? 620,
     height: options.height ?? 300,
     title: {
       text: options.title ?? 'True stress–plastic strain',
-      subtitle: `${groupLabel(curve.group)} · n = ${curve.n} · ${samples.length} test curves shown`,
+      subtitle: `n = ${curve.n} tests · ${samples.length} test curves shown`,
       subtitleColor: PALETTE.muted,
       subtitleFontSize: 10,
     },

@@ -31,6 +31,15 @@ export function formatSignificant(value: number | null | undefined, digits = 3):
   return formatFixed(value, decimals);
 }
 
+/** Shortest text of the value to at most `digits` significant digits (830, 0.008, 8.4, 1.2×10^-5). */
+export function formatShort(value: number | null | undefined, digits = 6): string {
+  if (value === null || value === undefined || !Number.isFinite(value)) return MISSING;
+  const magnitude = Math.abs(value);
+  if (magnitude !== 0 && (magnitude < 1e-4 || magnitude >= 1e9)) return formatSignificant(value, Math.min(digits, 4));
+  const text = String(Number(value.toPrecision(digits)));
+  return text.startsWith('-') ? `−${text.slice(1)}` : text;
+}
+
 export function formatInteger(value: number | null | undefined): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return MISSING;
   return formatFixed(Math.round(value), 0);

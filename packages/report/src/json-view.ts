@@ -1,15 +1,15 @@
 /**
  * Shows an open-ended stage object (idealization, provenance, comparison cells) as escaped
- * text: numbers to 6 significant digits, flat string maps as "k v · k v", anything else as
+ * text: numbers in their shortest form to 6 significant digits, flat string maps as "k v · k v", anything else as
  * compact JSON.
  */
 import { escapeHtml } from './html-escape.ts';
-import { formatSignificant } from './format-number.ts';
+import { formatShort } from './format-number.ts';
 import type { JsonValue } from './types.ts';
 
 export function jsonText(value: JsonValue): string {
   if (value === null) return '–';
-  if (typeof value === 'number') return formatSignificant(value, 6);
+  if (typeof value === 'number') return formatShort(value, 6);
   if (typeof value === 'string') return value;
   if (typeof value === 'boolean') return value ? 'yes' : 'no';
   if (Array.isArray(value)) {

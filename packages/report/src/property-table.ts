@@ -33,10 +33,10 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
     { header: 'median', numeric: true },
     { header: 'max', numeric: true },
     { header: 'best fit' },
-    ...methods.map((m) => ({ header: m.method, note: m.note ? `char. ${m.note}` : 'char.', numeric: true })),
+    ...methods.map((m) => ({ header: m.method.replace(/_/g, ' '), note: m.note ? `char. ${m.note}` : 'char.', numeric: true })),
     { header: 'spec', note: 'min / max', numeric: true },
-    { header: 'outside', note: 'below / above', numeric: true },
-    { header: 'fraction outside', numeric: true },
+    { header: 'n outside', note: 'below / above', numeric: true },
+    { header: 'outside', note: 'fraction', numeric: true },
     { header: 'Cpk', numeric: true },
     { header: 'warnings' },
   ];

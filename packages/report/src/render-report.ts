@@ -20,6 +20,19 @@ import type { ReportData, ReportDrift, ReportMeta } from './types.ts';
 
 const DEFAULT_MAX_ROWS = 200;
 
+function plural(n: number, one: string, many = `${one}s`): string {
+  return `${formatInteger(n)} ${n === 1 ? one : many}`;
+}
+
+/** "yield_min_mpa" → "yield min … MPa"; other keys as they are. */
+function specText(key: string, value: number): string {
+  const m = /^(.+?)_(min|max)(?:_(mpa|pct))?$/.exec(key);
+  if (!m) return `${key} ${formatFixed(value, 2)}`;
+  const name = m[1] === 'yt' ? 'Y/T' : m[1].replace(/_/g, ' ');
+  const unit = m[3] === 'mpa' ? ' MPa' : m[3] === 'pct' ? ' %' : '';
+  return `${name} ${m[2]} ${formatFixed(value, m[3] === 'mpa' ? 0 : m[3] === 'pct' ? 1 : 2)}${unit}`;
+}
+
 function cautionBox(text: string, where: 'top' | 'bottom'): string {
   return `<aside class="caution caution-${where}" role="note"><strong>Caution</strong>${escapeHtml(text)}</aside>`;
 }
@@ -54,10 +67,13 @@ function summarySection(meta: ReportMeta, data: ReportData): string {
       g.grade,
       g.family ?? '–',
       g.yield_definition ?? '–',
-      Object.entries(g.spec ?? {})
-        .filter(([, v]) => v !== null)
-        .map(([k, v]) => `${k} ${formatFixed(v, k.endsWith('_ratio') || k === 'yt_max' ? 2 : 0)}`)
-        .join(' · ') || '–',
+      {
+        html:
+          Object.entries(g.spec ?? {})
+            .filter((e): e is [string, number] => e[1] !== null && Number.isFinite(e[1]))
+            .map(([k, v]) => `<span class="nowrap">${escapeHtml(specText(k, v))}</span>`)
+            .join(' · ') || '–',
+      },
     ]),
     { emptyText: 'No grades in the catalog.' },
   );
@@ -65,7 +81,7 @@ function summarySection(meta: ReportMeta, data: ReportData): string {
   return `<section class="block" id="summary">
 <h2>Summary</h2>
 <div class="cards">${cards.map(([label, n]) => `<div class="card"><div class="value">${formatInteger(n)}</div><div class="label">${escapeHtml(label)}</div></div>`).join('')}</div>
-<div class="curve-row">
+<div class="two-col">
 <div><h3>Run</h3>${run}</div>
 <div><h3>Grade catalog</h3>${grades}</div>
 </div>
@@ -91,7 +107,7 @@ async function driftSection(drift: ReportDrift | null, maxRows: number): Promise
   }
   return `<section class="block" id="drift">
 <h2>Drift and control charts</h2>
-<p class="lead">${formatInteger(drift.result.alerts.length)} alerts, ${formatInteger(drift.result.change_points.length)} change points, ${formatInteger(drift.series.length)} monitored series.</p>
+<p class="lead">${plural(drift.result.alerts.length, 'alert')}, ${plural(drift.result.change_points.length, 'change point')}, ${plural(drift.series.length, 'monitored series', 'monitored series')}.</p>
 ${driftTables(drift.result, maxRows)}
 <h3>Control charts</h3>
 ${charts.length > 0 ? `<div class="cc-grid">\n${charts.join('\n')}\n</div>` : '<p class="empty">No monitored series.</p>'}

@@ -28,18 +28,20 @@ nav.toc a:hover { text-decoration: underline; }
 .group-head { display: flex; align-items: baseline; justify-content: space-between; gap: 12px; flex-wrap: wrap; }
 .group-head .n { color: var(--muted); font-size: 13px; }
 .curve-row { display: grid; grid-template-columns: minmax(0, 2.2fr) minmax(220px, 1fr); gap: 18px; align-items: start; }
+.two-col { display: grid; grid-template-columns: minmax(0, 1fr) minmax(0, 1fr); gap: 24px; align-items: start; }
+.nowrap { white-space: nowrap; }
 .side h3:first-child { margin-top: 4px; }
 figure { margin: 0; }
 figure svg { display: block; max-width: 100%; height: auto; }
 figcaption { font-size: 12px; color: var(--muted); margin-top: 4px; }
 .hist-grid { display: grid; grid-template-columns: repeat(auto-fill, minmax(300px, 1fr)); gap: 14px 18px; margin-top: 8px; }
-.cc-grid { display: grid; grid-template-columns: repeat(auto-fill, minmax(560px, 1fr)); gap: 18px; margin-top: 8px; }
+.cc-grid { display: grid; grid-template-columns: repeat(auto-fill, minmax(540px, 1fr)); gap: 18px; margin-top: 8px; }
 .chart { border: 1px solid #e6e9ee; border-radius: 4px; padding: 8px; background: #ffffff; }
 .table-wrap { overflow-x: auto; }
 table { border-collapse: collapse; width: 100%; font-size: 12.5px; }
 caption { text-align: left; color: var(--muted); padding-bottom: 4px; }
-th, td { padding: 5px 8px; border-bottom: 1px solid #e6e9ee; text-align: left; vertical-align: top; }
-thead th { background: var(--soft); font-weight: 600; border-bottom: 1px solid var(--line); white-space: nowrap; }
+th, td { padding: 5px 7px; border-bottom: 1px solid #e6e9ee; text-align: left; vertical-align: top; }
+thead th { background: var(--soft); font-weight: 600; border-bottom: 1px solid var(--line); vertical-align: bottom; }
 .th-note { display: block; font-weight: 400; color: var(--muted); font-size: 11px; }
 tbody tr:nth-child(even) td { background: #fafbfc; }
 td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
@@ -53,7 +55,7 @@ dl.kv { display: grid; grid-template-columns: max-content 1fr; gap: 2px 12px; ma
 dl.kv dt { color: var(--muted); }
 dl.kv dd { margin: 0; font-variant-numeric: tabular-nums; overflow-wrap: anywhere; }
 footer { max-width: 1280px; margin: 0 auto; padding: 0 28px 32px; color: var(--muted); font-size: 12px; }
-@media (max-width: 900px) { .curve-row { grid-template-columns: 1fr; } nav.toc ol { columns: 1; } }
+@media (max-width: 900px) { .curve-row, .two-col { grid-template-columns: 1fr; } nav.toc ol { columns: 1; } }
 @media print {
   html { background: #ffffff; }
   main { padding: 0; }
