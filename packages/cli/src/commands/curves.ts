@@ -1,0 +1,67 @@
+/** `fractile curves`: median and characteristic true stress–plastic strain curves per group (contract JSON). */
+import type { Command } from 'commander';
+import { DESIGN_CAUTION, parseGroupBy, runCurves, type DesignOptions } from '@fractile/pipeline';
+import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
+import { writeCurveFiles } from '../curve-files.ts';
+import { addFilterOptions, probability, readFilter, withStore } from '../shared-options.ts';
+import { CODE_VERSION } from '../version.ts';
+
+const LAWS = ['swift', 'voce', 'hollomon'] as const;
+
+export const command: CommandModule = {
+  order: 50,
+  register(program: Command) {
+    addFilterOptions(
+      program
+        .command('curves')
+        .description('median and characteristic true stress – plastic strain curves per group, with idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
+        .option('--by <fields>', 'grouping (comma-separated)', 'grade')
+        .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', '0.95')
+        .option('--confidence <g>', 'confidence of the lower tolerance bound', '0.75')
+        .option('--model <m>', 'tolerance model at each strain: normal or lognormal', 'normal')
+        .option('--extrapolate <law>', 'extend past the valid range by a law fitted to the characteristic curve: swift, voce or hollomon')
+        .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
+        .option('--multilinear-points <n>', 'points of the multilinear idealization', '6')
+        .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder'),
+    )
+      .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution.')
+      .action(async (o: Record<string, unknown>, cmd: Command) => {
+        const g = globals(cmd);
+        const model = o.model as string;
+        if (model !== 'normal' && model !== 'lognormal') throw new CliError('--model must be normal or lognormal');
+        const law = o.extrapolate as string | undefined;
+        if (law !== undefined && !(LAWS as readonly string[]).includes(law)) throw new CliError(`--extrapolate must be one of ${LAWS.join(', ')}`);
+        const points = Number(o.multilinearPoints);
+        if (!Number.isInteger(points) || points < 2) throw new CliError('--multilinear-points must be an integer ≥ 2');
+        const design: Partial<DesignOptions> = {
+          coverage: probability(o.coverage, '--coverage', 0.95),
+          confidence: probability(o.confidence, '--confidence', 0.75),
+          model,
+          extrapolate: (law as DesignOptions['extrapolate']) ?? null,
+          multilinearPoints: points,
+          ...(o.extrapolateTo !== undefined ? { extrapolateTo: Number(o.extrapolateTo) } : {}),
+        };
+        await withStore(g, async (store) => {
+          const r = await runCurves(store, { by: parseGroupBy(o.by as string), design, filter: readFilter(o), codeVersion: CODE_VERSION, generatedAt: new Date().toISOString() });
+          log(`curves: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.curves.length} groups${r.skipped.length ? `, ${r.skipped.length} left out` : ''}`);
+          for (const s of r.skipped) log(`  left out ${JSON.stringify(s.group)}: ${s.reason}`);
+          if (typeof o.out === 'string') log(`curves: wrote ${writeCurveFiles(o.out, r.curves).length} files under ${o.out}`);
+          if (g.format === 'json') {
+            process.stdout.write(JSON.stringify(r.curves, null, 2) + '\n');
+          } else if (g.format === 'csv') {
+            const rows = r.curves.flatMap((c) =>
+              c.plastic_strain.map((x, i) => ({ ...c.group, plastic_strain: x, median_mpa: c.median_mpa[i], characteristic_mpa: c.characteristic_mpa[i], extrapolated: c.extrapolated[i] })),
+            );
+            process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}\n` + toCsv(rows));
+          } else {
+            for (const c of r.curves) {
+              process.stdout.write(
+                `${Object.entries(c.group).map(([k, v]) => `${k}=${v}`).join(' ')}: n=${c.n}, characteristic yield ${c.characteristic_yield_mpa?.toFixed(1) ?? '—'} MPa, valid to plastic strain ${c.valid_to_plastic_strain ?? '—'}${c.extrapolated_from !== null ? `, extrapolated (${c.extrapolation?.law}) from ${c.extrapolated_from}` : ''}\n`,
+              );
+            }
+            process.stdout.write(`\n${DESIGN_CAUTION}\n`);
+          }
+        });
+      });
+  },
+};

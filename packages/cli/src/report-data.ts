@@ -1,0 +1,136 @@
+/**
+ * Assembles the report's input from the stored stage results: statistics and curves per group,
+ * drift charts, and the data-quality lists (rejections, failed and flagged tests).
+ */
+import { sql } from 'kysely';
+import type { Store } from '@fractile/store';
+import {
+  groupRows,
+  loadProperties,
+  NUMERIC_PROPERTIES,
+  type AggregateResult,
+  type Catalog,
+  type CurvesStageResult,
+  type DriftResult,
+  type GroupField,
+} from '@fractile/pipeline';
+import { hashOf } from '@fractile/pipeline';
+import type { ControlSeries, ReportData, ReportGroup, SampleCurve } from '@fractile/report';
+import { CODE_VERSION } from './version.ts';
+
+export interface ReportInputs {
+  by: GroupField[];
+  aggregate: AggregateResult;
+  curves: CurvesStageResult;
+  drift: DriftResult | null;
+  catalog: Catalog | null;
+  catalogSource: string | null;
+  reduceHash: string | null;
+  generatedAt: string;
+  title?: string;
+}
+
+/** Flags that say how a value was obtained rather than that something needs a look. */
+const INFORMATIONAL_FLAGS = new Set(['given', 'past_max_force_ignored', 'n_window_reduced']);
+
+const keyOf = (g: Record<string, string>) => JSON.stringify(Object.entries(g).sort());
+
+function sampleCurve(grid: number[], t: { test_id: string; stress_mpa: (number | null)[] }): SampleCurve {
+  const x: number[] = [];
+  const y: number[] = [];
+  t.stress_mpa.forEach((v, i) => {
+    if (v !== null && Number.isFinite(v)) {
+      x.push(grid[i]);
+      y.push(v);
+    }
+  });
+  return { test_id: t.test_id, plastic_strain: x, stress_mpa: y };
+}
+
+export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
+  const db = store.db;
+  const rows = await loadProperties(db, {}, {});
+  const all = await loadProperties(db, { includeFailed: true });
+  const groups = groupRows(rows, inp.by, NUMERIC_PROPERTIES);
+  const valuesByGroup = new Map(groups.map((g) => [keyOf(g.key), g]));
+  const curvesByGroup = new Map(inp.curves.curves.map((c) => [keyOf(c.group), c]));
+  const samplesByGroup = new Map(inp.curves.samples.map((s) => [keyOf(s.group), s.tests]));
+  const statsByGroup = new Map<string, AggregateResult['stats']>();
+  for (const s of inp.aggregate.stats) {
+    const k = keyOf(s.group);
+    if (!statsByGroup.has(k)) statsByGroup.set(k, []);
+    statsByGroup.get(k)!.push(s);
+  }
+  const reportGroups: ReportGroup[] = [];
+  for (const [k, stats] of statsByGroup) {
+    const vg = valuesByGroup.get(k);
+    const curve = curvesByGroup.get(k) ?? null;
+    reportGroups.push({
+      key: stats[0].group,
+      curves: curve && curve.valid_to_plastic_strain !== null ? { ...curve, valid_to_plastic_strain: curve.valid_to_plastic_strain, idealized: (curve.idealized ?? {}) as never, provenance: curve.provenance as never } : null,
+      sample_curves: (samplesByGroup.get(k) ?? []).map((t) => sampleCurve(inp.curves.grid, t)),
+      properties: stats.map((s) => ({ stats: s as never, values: (vg?.columns[s.property] ?? []).filter((v) => Number.isFinite(v)), headline_method: 'tolerance-normal' })),
+    });
+  }
+
+  const series: ControlSeries[] = (inp.drift?.series ?? []).map((s) => ({
+    group: s.group,
+    property: s.property,
+    points: s.monitor.points.map((p) => ({ date: p.date, value: p.value, test_id: p.testId })),
+    center: s.monitor.individuals.center,
+    ucl: s.monitor.individuals.ucl,
+    lcl: s.monitor.individuals.lcl,
+    ewma: {
+      values: s.monitor.points.map((p) => p.ewma),
+      center: s.monitor.baseline.mean,
+      ucl: 'ucl' in s.monitor.ewmaLimits ? s.monitor.ewmaLimits.ucl : s.monitor.baseline.mean,
+      lcl: 'lcl' in s.monitor.ewmaLimits ? s.monitor.ewmaLimits.lcl : s.monitor.baseline.mean,
+    },
+    spec_min: s.lower_spec,
+  }));
+  // Series with alerts first, so the charts that matter lead.
+  const alerted = new Set((inp.drift?.alerts ?? []).map((a) => keyOf(a.group) + a.property));
+  series.sort((a, b) => Number(alerted.has(keyOf(b.group) + b.property)) - Number(alerted.has(keyOf(a.group) + a.property)));
+
+  const rejections = await db.selectFrom('rejections').select(['file', 'line', 'col', 'code', 'message']).orderBy('id').execute();
+  const counts = await sql<{ tests: string; curves: string; summary_only: string }>`
+    select count(*) as tests, count(c.test_row_id) as curves, count(*) filter (where c.test_row_id is null) as summary_only
+    from tests t left join curves c on c.test_row_id = t.id where t.is_current`.execute(db);
+  const failed = all.filter((r) => r.failure);
+  const flagged = all.filter((r) => !r.failure && r.flags.some((f) => !INFORMATIONAL_FLAGS.has(f)));
+  const c = counts.rows[0];
+  return {
+    meta: {
+      title: inp.title ?? 'fractile — tensile test population report',
+      generated_at: inp.generatedAt,
+      code_version: CODE_VERSION,
+      database: { engine: store.engine, target: store.engine === 'postgres' ? store.target.replace(/\/\/[^@/]*@/, '//…@') : store.target },
+      settings_hashes: {
+        ...(inp.reduceHash ? { reduce: inp.reduceHash } : {}),
+        stats_run: String(inp.aggregate.run),
+        curves_run: String(inp.curves.run),
+        ...(inp.drift ? { drift_run: String(inp.drift.run) } : {}),
+      },
+      catalog: {
+        source: inp.catalogSource,
+        hash: inp.catalog ? hashOf(inp.catalog) : null,
+        grades: Object.entries(inp.catalog?.grades ?? {}).map(([grade, e]) => ({ grade, family: e.family, yield_definition: e.yield_definition, spec: e.spec as Record<string, number | null> })),
+      },
+      counts: {
+        tests: Number(c.tests),
+        curves: Number(c.curves),
+        summary_only: Number(c.summary_only),
+        rejected: rejections.length,
+        failed: failed.length,
+        flagged: flagged.length,
+      },
+    },
+    groups: reportGroups,
+    drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons as never }, series } : null,
+    quality: {
+      rejections: rejections.map((r) => ({ file: r.file, line: r.line, column: r.col, code: r.code, message: r.message })),
+      failed: failed.map((r) => ({ lab: r.lab, test_id: r.test_id, code: r.failure!.code, message: r.failure!.message })),
+      flagged: flagged.map((r) => ({ lab: r.lab, test_id: r.test_id, flags: r.flags.filter((f) => !INFORMATIONAL_FLAGS.has(f)) })),
+    },
+  };
+}

@@ -1,0 +1,78 @@
+/**
+ * Options several commands share: the grade catalog, grouping and the filters on date range,
+ * grade, supplier, orientation and temperature.
+ */
+import type { Command } from 'commander';
+import type { Kysely } from 'kysely';
+import type { Database, Store } from '@fractile/store';
+import { openStore } from '@fractile/store';
+import { currentCatalog, loadCatalog, NUMERIC_PROPERTIES, type Catalog, type PropertyFilter, type PropertyKey } from '@fractile/pipeline';
+import { CliError, dbTarget, type GlobalOptions } from './context.ts';
+
+export function addFilterOptions(cmd: Command): Command {
+  return cmd
+    .option('--grade <labels>', 'only these grades (comma-separated)')
+    .option('--supplier <names>', 'only these suppliers (comma-separated)')
+    .option('--from <date>', 'only tests on or after this date (YYYY-MM-DD)')
+    .option('--to <date>', 'only tests on or before this date (YYYY-MM-DD)')
+    .option('--orientation <codes>', 'only these specimen orientations (comma-separated)')
+    .option('--temperature-min <C>', 'only tests at or above this temperature [°C]')
+    .option('--temperature-max <C>', 'only tests at or below this temperature [°C]');
+}
+
+const list = (s: unknown): string[] | undefined => (typeof s === 'string' && s.trim() ? s.split(',').map((x) => x.trim()).filter(Boolean) : undefined);
+
+function isoDate(s: unknown, name: string): string | undefined {
+  if (s === undefined) return undefined;
+  if (typeof s !== 'string' || !/^\d{4}-\d{2}-\d{2}$/.test(s) || Number.isNaN(Date.parse(s))) throw new CliError(`${name} must be a date YYYY-MM-DD, got "${String(s)}"`);
+  return s;
+}
+
+function number(s: unknown, name: string): number | undefined {
+  if (s === undefined) return undefined;
+  const x = Number(s);
+  if (!Number.isFinite(x)) throw new CliError(`${name} must be a number, got "${String(s)}"`);
+  return x;
+}
+
+export function readFilter(o: Record<string, unknown>): PropertyFilter {
+  return {
+    grade: list(o.grade),
+    supplier: list(o.supplier),
+    from: isoDate(o.from, '--from'),
+    to: isoDate(o.to, '--to'),
+    orientation: list(o.orientation),
+    temperatureMinC: number(o.temperatureMin, '--temperature-min'),
+    temperatureMaxC: number(o.temperatureMax, '--temperature-max'),
+  };
+}
+
+export function readProperties(o: Record<string, unknown>, dflt?: PropertyKey[]): PropertyKey[] | undefined {
+  const raw = o.property;
+  const names = (Array.isArray(raw) ? raw : typeof raw === 'string' ? [raw] : []).flatMap((s: string) => s.split(',')).map((s) => s.trim()).filter(Boolean);
+  if (names.length === 0) return dflt;
+  for (const n of names) if (!(NUMERIC_PROPERTIES as readonly string[]).includes(n)) throw new CliError(`unknown property "${n}" (known: ${NUMERIC_PROPERTIES.join(', ')})`);
+  return names as PropertyKey[];
+}
+
+export function probability(s: unknown, name: string, dflt: number): number {
+  if (s === undefined) return dflt;
+  const x = Number(s);
+  if (!(x > 0 && x < 1)) throw new CliError(`${name} must be a number between 0 and 1 (exclusive), got "${String(s)}"`);
+  return x;
+}
+
+/** --catalog FILE, else the catalog the latest reduce run used, else none. */
+export async function resolveCatalog(db: Kysely<Database>, file: unknown): Promise<Catalog | null> {
+  if (typeof file === 'string') return loadCatalog(file);
+  return currentCatalog(db);
+}
+
+export async function withStore<T>(g: GlobalOptions, fn: (store: Store) => Promise<T>): Promise<T> {
+  const store = await openStore(dbTarget(g));
+  try {
+    return await fn(store);
+  } finally {
+    await store.close();
+  }
+}

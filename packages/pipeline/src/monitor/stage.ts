@@ -1,0 +1,152 @@
+/**
+ * The monitor stage: per group (default supplier × grade) and property, the series in time order
+ * (test date, then heat) goes through control charts, change-point detection and rolling
+ * capability against the grade minimum; suppliers of each grade are compared. Output follows the
+ * drift contract: {alerts, change_points, comparisons}, plus the chart data for the report.
+ */
+import type { Store } from '@fractile/store';
+import { compareGroups, monitorSeries, type GroupComparison, type MonitorOptions, type SeriesMonitor } from '@fractile/stats';
+import { gradeSettings, type Catalog } from '../catalog.ts';
+import { groupRows, type GroupField } from '../aggregate/grouping.ts';
+import { limitsFor } from '../aggregate/limits.ts';
+import { hashOf } from '../hash.ts';
+import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
+import { findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+
+export interface DriftOptions {
+  by: GroupField[];
+  properties?: PropertyKey[];
+  monitor?: Omit<MonitorOptions, 'lowerSpec'>;
+  filter?: PropertyFilter;
+  catalog: Catalog | null;
+  codeVersion: string;
+}
+
+export const DEFAULT_DRIFT_PROPERTIES: PropertyKey[] = ['yield_mpa', 'rm_mpa'];
+
+export interface DriftAlert {
+  group: Record<string, string>;
+  property: PropertyKey;
+  rule: string;
+  first_date: string;
+  magnitude: number;
+  magnitude_unit: string;
+  tests: string[];
+}
+
+export interface DriftChangePoint {
+  group: Record<string, string>;
+  property: PropertyKey;
+  date: string;
+  shift: number;
+  ci: [number, number];
+}
+
+export interface DriftComparison extends GroupComparison {
+  grade: string;
+  property: PropertyKey;
+  groups: Record<string, number>;
+}
+
+export interface DriftSeries {
+  group: Record<string, string>;
+  property: PropertyKey;
+  lower_spec: number | null;
+  monitor: SeriesMonitor;
+}
+
+export interface DriftResult {
+  run: number;
+  reused: boolean;
+  alerts: DriftAlert[];
+  change_points: DriftChangePoint[];
+  comparisons: DriftComparison[];
+  series: DriftSeries[];
+  seconds: number;
+}
+
+const MIN_SERIES = 8;
+
+function grading(key: Record<string, string>, rows: PropertyRow[], idx: number[]): string | null {
+  if (key.grade !== undefined) return key.grade;
+  const g = new Set(idx.map((i) => rows[i].grade));
+  return g.size === 1 ? [...g][0] : null;
+}
+
+/** Pure part: drift analysis of loaded rows (already in time order: date, then heat). */
+export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'codeVersion'>): Omit<DriftResult, 'run' | 'reused' | 'seconds'> {
+  const properties = opts.properties ?? DEFAULT_DRIFT_PROPERTIES;
+  const groups = groupRows(rows, opts.by, properties);
+  const alerts: DriftAlert[] = [];
+  const change_points: DriftChangePoint[] = [];
+  const series: DriftSeries[] = [];
+  for (const g of groups) {
+    const grade = grading(g.key, rows, g.rows);
+    const spec = grade === null ? null : gradeSettings(opts.catalog, grade).spec;
+    for (const p of properties) {
+      const pts = g.rows
+        .map((ri, j) => ({ value: g.columns[p][j], date: rows[ri].tested_on, testId: `${rows[ri].lab}/${rows[ri].test_id}`, heat: rows[ri].heat }))
+        .filter((x) => Number.isFinite(x.value));
+      if (pts.length < MIN_SERIES) continue;
+      const lowerSpec = limitsFor(p, spec).lower;
+      const m = monitorSeries(pts, { ...opts.monitor, lowerSpec });
+      series.push({ group: g.key, property: p, lower_spec: lowerSpec, monitor: m });
+      for (const a of m.alerts) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
+      for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, shift: c.shift, ci: c.ci });
+    }
+  }
+  // Suppliers compared within each grade.
+  const comparisons: DriftComparison[] = [];
+  const byGrade = groupRows(rows, ['grade'], properties);
+  for (const gg of byGrade) {
+    for (const p of properties) {
+      const bySupplier: Record<string, number[]> = {};
+      gg.rows.forEach((ri, j) => {
+        const v = gg.columns[p][j];
+        if (Number.isFinite(v)) (bySupplier[rows[ri].supplier] ??= []).push(v);
+      });
+      const usable = Object.fromEntries(Object.entries(bySupplier).filter(([, v]) => v.length >= 3));
+      if (Object.keys(usable).length < 2) continue;
+      for (const c of compareGroups(usable)) {
+        comparisons.push({ grade: gg.key.grade, property: p, groups: Object.fromEntries(Object.entries(usable).map(([k, v]) => [k, v.length])), ...c });
+      }
+    }
+  }
+  return { alerts, change_points, comparisons, series };
+}
+
+export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
+  const t0 = performance.now();
+  const db = store.db;
+  const rows = await loadProperties(db, opts.filter);
+  const settings = {
+    by: opts.by,
+    properties: opts.properties ?? DEFAULT_DRIFT_PROPERTIES,
+    monitor: opts.monitor ?? {},
+    filter: opts.filter ?? {},
+    spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
+  };
+  const settingsHash = await saveSettings(db, 'monitor', settings);
+  const inputHash = hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`));
+  const done = await findDoneRun(db, 'monitor', settingsHash, inputHash);
+  if (done) {
+    const stored = await loadDrift(store, done.id);
+    if (stored) return { run: done.id, reused: true, ...stored, seconds: (performance.now() - t0) / 1000 };
+  }
+  const run = await startRun(db, 'monitor', settingsHash, inputHash, opts.codeVersion);
+  const result = analyzeDrift(rows, opts);
+  await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [[run, 'monitor', JSON.stringify({}), '', JSON.stringify(result)]]);
+  await finishRun(db, run, { tests: rows.length, series: result.series.length, alerts: result.alerts.length, change_points: result.change_points.length });
+  return { run, reused: false, ...result, seconds: (performance.now() - t0) / 1000 };
+}
+
+export async function loadDrift(store: Store, run: number): Promise<Omit<DriftResult, 'run' | 'reused' | 'seconds'> | null> {
+  const row = await store.db.selectFrom('group_results').select(['body']).where('run_id', '=', run).where('stage', '=', 'monitor').executeTakeFirst();
+  if (!row) return null;
+  return (typeof row.body === 'string' ? JSON.parse(row.body) : row.body) as Omit<DriftResult, 'run' | 'reused' | 'seconds'>;
+}
+
+/** The contract JSON of `fractile drift`. */
+export function driftContract(r: Pick<DriftResult, 'alerts' | 'change_points' | 'comparisons'>): { alerts: DriftAlert[]; change_points: DriftChangePoint[]; comparisons: DriftComparison[] } {
+  return { alerts: r.alerts, change_points: r.change_points, comparisons: r.comparisons };
+}

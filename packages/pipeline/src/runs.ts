@@ -1,0 +1,60 @@
+/**
+ * Stage run rows: every stage that does work records what ran, when, with which settings (by
+ * hash, the body kept once in stage_settings), on which inputs, with which code version, and how
+ * many items it handled.
+ */
+import { sql, type Kysely } from 'kysely';
+import type { Database, StageName } from '@fractile/store';
+import { hashOf } from './hash.ts';
+
+/** Version of the pipeline's algorithms; bump when a change alters results for the same input. */
+export const ALGORITHM_VERSION = '1';
+
+/** Stores a settings body under its hash (once) and returns the hash. */
+export async function saveSettings(db: Kysely<Database>, stage: StageName, body: object): Promise<string> {
+  const hash = hashOf(body);
+  await db
+    .insertInto('stage_settings')
+    .values({ hash, stage, body: JSON.stringify(body) })
+    .onConflict((oc) => oc.column('hash').doNothing())
+    .execute();
+  return hash;
+}
+
+export async function startRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null, codeVersion: string): Promise<number> {
+  const row = await db
+    .insertInto('stage_runs')
+    .values({ stage, settings_hash: settingsHash, input_hash: inputHash, code_version: codeVersion, counts: JSON.stringify({}) })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return Number(row.id);
+}
+
+export async function finishRun(db: Kysely<Database>, runId: number, counts: Record<string, number>, status: 'done' | 'failed' = 'done'): Promise<void> {
+  await db
+    .updateTable('stage_runs')
+    .set({ status, finished_at: sql<Date>`now()`, counts: JSON.stringify(counts) })
+    .where('id', '=', runId)
+    .execute();
+}
+
+/** The newest finished run of a stage with these settings and inputs, if any. */
+export async function findDoneRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null): Promise<{ id: number; finished_at: Date | null } | null> {
+  let q = db.selectFrom('stage_runs').select(['id', 'finished_at']).where('stage', '=', stage).where('settings_hash', '=', settingsHash).where('status', '=', 'done');
+  q = inputHash === null ? q.where('input_hash', 'is', null) : q.where('input_hash', '=', inputHash);
+  const row = await q.orderBy('id', 'desc').limit(1).executeTakeFirst();
+  return row ? { id: Number(row.id), finished_at: row.finished_at } : null;
+}
+
+/** The newest finished run of a stage, whatever its settings. */
+export async function latestRun(db: Kysely<Database>, stage: StageName): Promise<{ id: number; settings_hash: string; code_version: string; finished_at: Date | null; counts: Record<string, number> } | null> {
+  const row = await db
+    .selectFrom('stage_runs')
+    .select(['id', 'settings_hash', 'code_version', 'finished_at', 'counts'])
+    .where('stage', '=', stage)
+    .where('status', '=', 'done')
+    .orderBy('id', 'desc')
+    .limit(1)
+    .executeTakeFirst();
+  return row ? { id: Number(row.id), settings_hash: row.settings_hash, code_version: row.code_version, finished_at: row.finished_at, counts: row.counts } : null;
+}
