@@ -37,7 +37,8 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
         const g = globals(cmd);
         const batchSize = Number(o.batchSize);
         if (!Number.isInteger(batchSize) || batchSize < 1) throw new CliError(`--batch-size must be a whole number ≥ 1, got "${o.batchSize}"`);
-        await withStore(g, async (store) => {
+        // the exit status is set after the store is closed (closing the embedded engine resets it)
+        const rejected = await withStore(g, async (store) => {
           const bar = progressBar('ingest');
           let summary;
           try {
@@ -55,8 +56,9 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
           log(`${summary.dry_run ? 'dry run: would accept' : `run ${summary.run}: accepted`} ${summary.accepted} (${summary.replaced} replacing a stored version), ${summary.duplicates} duplicate, ${summary.rejected.length} rejected`);
           const row = { run: summary.run, accepted: summary.accepted, duplicates: summary.duplicates, replaced: summary.replaced, rejected: summary.rejected.length, dry_run: summary.dry_run };
           emit(g.format, summary, [row]);
-          if (summary.rejected.length > 0) process.exitCode = EXIT_REJECTED;
+          return summary.rejected.length;
         });
+        if (rejected > 0) process.exitCode = EXIT_REJECTED;
       });
   },
 };
