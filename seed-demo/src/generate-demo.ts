@@ -16,7 +16,7 @@ import { AsciiBuffer } from './ascii-buffer.ts';
 import { FOREIGN_COLUMN_MAP, IN_MM, formatCurveCsv } from './curve-format.ts';
 import { dayOf, isoOf, yearOf } from './dates.ts';
 import { Rng, mixSeed } from './random.ts';
-import { DRIFT, FABRICATOR, GRADES, MILLS, SPECIAL_SHARES, SUMMARY_ONLY_SHARE, WINDOW_END, WINDOW_START, catalogJson, gradeDef } from './scenario.ts';
+import { DRIFT, FABRICATOR, MILLS, SPECIAL_SHARES, SUMMARY_ONLY_SHARE, WINDOW_END, WINDOW_START, catalogJson, gradeDef } from './scenario.ts';
 import type { CurveLayout, GradeDef, MillDef } from './scenario.ts';
 import { simulateTest } from './simulate-test.ts';
 import type { SimulatedTest } from './simulate-test.ts';
@@ -457,4 +457,3 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
   return { ...manifest, outDir };
 }
 
-export { GRADES, MILLS };
