@@ -91,6 +91,7 @@ describe('report structure', async () => {
       { method: 'tolerance_normal', coverage: 0.95, confidence: 0.75, value: 394.2736, note: null },
       { method: 'en1990_v_unknown', coverage: 0.95, confidence: null, value: -0.04, note: null },
     ];
+    rp.warnings = ['Anderson–Darling rejects <all> fits'];
     rp.compliance = { lower: 355, upper: null, n_below: 2, n_above: 0, fraction_outside: 0.05, tail_below: 0.01, tail_above: null, cpk: 1.9087 };
     const page = await renderReport(one);
     const row = page.match(/<tr><td><span class="prop">Rp0\.2<\/span>[\s\S]*?<\/tr>/)![0];
@@ -104,6 +105,8 @@ describe('report structure', async () => {
     expect(row).toContain('<td class="num char">394.3</td>');
     // −0.04 to one decimal reads 0.0, not −0.0
     expect(row).toContain('<td class="num char">0.0</td>');
+    // stats warnings listed under the table, escaped
+    expect(page).toContain('<ul class="warnings"><li><span class="prop">Rp0.2</span>: Anderson–Darling rejects &lt;all&gt; fits</li></ul>');
     // method columns carry coverage and confidence in the header
     expect(page).toContain('tolerance normal<span class="th-note">char. p 0.95, γ 0.75</span>');
   });

@@ -1,9 +1,11 @@
 /**
  * The property table of one group: population statistics, the characteristic values of every
  * method the stats stage reported (one column per method), and compliance with the
- * specification limits. Values in the property's unit, CoV and fractions in percent.
+ * specification limits. Values in the property's unit, CoV and fractions in percent; the
+ * stats stage's warnings listed below the table.
  */
 import { formatFixed, formatInteger, formatPercent, formatSignificant, MISSING } from './format-number.ts';
+import { escapeHtml } from './html-escape.ts';
 import { htmlTable, type CellInput, type Column } from './html-table.ts';
 import { propertyLabel } from './property-labels.ts';
 import type { CharacteristicValue, ReportProperty } from './types.ts';
@@ -38,7 +40,6 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
     { header: 'n outside', note: 'below / above', numeric: true },
     { header: 'outside', note: 'fraction', numeric: true },
     { header: 'Cpk', numeric: true },
-    { header: 'warnings' },
   ];
   const rows = properties.map((p): CellInput[] => {
     const s = p.stats;
@@ -68,8 +69,12 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
       c ? `${formatInteger(c.n_below)} / ${formatInteger(c.n_above)}` : MISSING,
       c ? formatPercent(c.fraction_outside, 1) : MISSING,
       c ? formatSignificant(c.cpk, 3) : MISSING,
-      { text: s.warnings.join('; '), className: s.warnings.length > 0 ? 'warn' : '' },
     ];
   });
-  return htmlTable(columns, rows, { className: 'data props', emptyText: 'No property statistics for this group.' });
+  const table = htmlTable(columns, rows, { className: 'data props', emptyText: 'No property statistics for this group.' });
+  // warnings of the stats stage under the table, one line per property that has any
+  const warnings = properties
+    .filter((p) => p.stats.warnings.length > 0)
+    .map((p) => `<li><span class="prop">${escapeHtml(propertyLabel(p.stats.property).name)}</span>: ${escapeHtml(p.stats.warnings.join('; '))}</li>`);
+  return warnings.length > 0 ? `${table}\n<ul class="warnings">${warnings.join('')}</ul>` : table;
 }

@@ -48,6 +48,7 @@ td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-sp
 td.char { font-weight: 600; color: ${PALETTE.characteristic}; }
 td.warn { color: var(--warn); }
 .unit { color: var(--muted); }
+ul.warnings { margin: 6px 0 0; padding-left: 18px; color: var(--warn); font-size: 12.5px; }
 .mono { font-family: ui-monospace, "DejaVu Sans Mono", "Liberation Mono", monospace; font-size: 12px; }
 .empty { color: var(--muted); font-style: italic; margin: 4px 0; }
 .truncated { color: var(--warn); font-size: 12.5px; margin: 6px 0 0; }
