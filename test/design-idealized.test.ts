@@ -34,6 +34,7 @@ describe('elastic–perfectly plastic and bilinear idealizations', () => {
   it('bilinear hardening modulus equals the analytic slope', () => {
     expect(c.idealized!.bilinear.hardening_modulus_mpa).toBeCloseTo(H, 6);
     expect(c.idealized!.bilinear.yield_mpa).toBe(c.characteristic_yield_mpa);
+    expect(c.idealized!.bilinear.rmse_mpa).toBeLessThan(1e-6);
     // tangent modulus against total strain: 1/E_t = 1/E + 1/H (series springs, exact)
     expect(c.idealized!.bilinear.tangent_modulus_mpa!).toBeCloseTo(1 / (1 / 205_000 + 1 / H), 6);
   });
@@ -55,6 +56,7 @@ describe('Ramberg–Osgood parameter set', () => {
     expect(ro.sigma0_mpa).toBeCloseTo(ref.bound, 6);
     expect(ro.m).toBeCloseTo(m, 6);
     expect(ro.e_mpa).toBe(70_000);
+    expect(ro.rmse_mpa).toBeLessThan(1e-6);
     // the characteristic curve's stress at εp = 0.002 (its Rp0.2) is σ0 of the set
     expect(c.plastic_strain[0]).toBe(0.002);
     expect(c.characteristic_mpa[0]).toBeCloseTo(ro.sigma0_mpa, 6);
@@ -75,6 +77,30 @@ describe('Ramberg–Osgood parameter set', () => {
     const fit = fitRambergOsgoodPlastic(x, y)!;
     expect(fit.m).toBeCloseTo(1 / ref[0], 9);
     expect(fit.sigma0Mpa).toBeCloseTo(Math.exp(ref[1]), 8);
+    // σ0 held: the slope through (0, ln σ0) by numpy.linalg.lstsq
+    const held = JSON.parse(
+      execFileSync(
+        '/usr/bin/python3',
+        ['-c', 'import json,sys,numpy as np\nd=json.load(sys.stdin)\nX=np.log(np.array(d["x"])/0.002)[:,None]\nu=np.linalg.lstsq(X,np.log(d["y"])-np.log(310.0),rcond=None)[0][0]\nprint(json.dumps(float(u)))'],
+        { input: JSON.stringify({ x, y }), encoding: 'utf8' },
+      ),
+    ) as number;
+    const fitHeld = fitRambergOsgoodPlastic(x, y, 310)!;
+    expect(fitHeld.sigma0Mpa).toBeCloseTo(310, 9);
+    expect(fitHeld.m).toBeCloseTo(1 / held, 9);
+  });
+
+  it('takes σ0 from the characteristic curve at εp = 0.002 when the grid starts at 0', () => {
+    // Source: REFERENCES.md — Rp0.2 = σ0 for the offset form; the curve's stress at 0.2 %
+    // plastic strain is read by linear interpolation between grid points.
+    const g0 = grid(0, 0.05, 0.0015);
+    const s = normals(203, 15, 280, 12);
+    const t0 = s.map((v, i) => lawCurve(`R0-${i}`, g0, (e) => v * Math.pow(0.001 + e, 0.12), 0.05, v * Math.pow(0.001, 0.12), 70));
+    const c0 = characteristicCurve({ group: {}, grid: g0, tests: t0 }, opts(), PROV);
+    const j = c0.plastic_strain.findIndex((e) => e > 0.002);
+    const t = (0.002 - c0.plastic_strain[j - 1]) / (c0.plastic_strain[j] - c0.plastic_strain[j - 1]);
+    const rp02 = c0.characteristic_mpa[j - 1] + t * (c0.characteristic_mpa[j] - c0.characteristic_mpa[j - 1]);
+    expect(c0.idealized!.ramberg_osgood!.sigma0_mpa).toBeCloseTo(rp02, 9);
   });
 
   it('returns null without hardening', () => {

@@ -29,7 +29,7 @@ import { engineeringCounterpart } from './engineering-counterpart.ts';
 import { extrapolateJoined, fitLaw } from './extrapolate-law.ts';
 import { fitBilinearHardening } from './idealize-bilinear.ts';
 import { multilinearBreakpoints } from './idealize-multilinear.ts';
-import { fitRambergOsgoodPlastic } from './idealize-ramberg-osgood.ts';
+import { fitRambergOsgoodPlastic, interpolateAt, RO_OFFSET } from './idealize-ramberg-osgood.ts';
 import { lowerToleranceBound, type ToleranceSpec } from './lower-tolerance-bound.ts';
 import { designProvenance } from './provenance.ts';
 import type { DesignCurve, DesignOptions, IdealizedCurves, ProvenanceInput, TestGridCurve } from './types.ts';
@@ -289,17 +289,18 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
   // idealizations
   const bil = fitBilinearHardening(x, chr, y0, eMpa);
   const ml = multilinearBreakpoints(plastic, chrOut, opts.multilinearPoints);
-  const ro = fitRambergOsgoodPlastic(x, chr);
+  const rp02 = interpolateAt(x, chr, RO_OFFSET);
+  const ro = fitRambergOsgoodPlastic(x, chr, rp02 ?? undefined);
   if (!ro) warnings.push('no_ramberg_osgood: the Ramberg–Osgood set could not be fitted (too few points or no hardening)');
   const idealized: IdealizedCurves = {
     elastic_perfectly_plastic: { e_mpa: eMpa, yield_mpa: y0 },
-    bilinear: { e_mpa: eMpa, yield_mpa: y0, hardening_modulus_mpa: bil.hardeningModulusMpa, tangent_modulus_mpa: bil.tangentModulusMpa },
+    bilinear: { e_mpa: eMpa, yield_mpa: y0, hardening_modulus_mpa: bil.hardeningModulusMpa, tangent_modulus_mpa: bil.tangentModulusMpa, rmse_mpa: bil.rmseMpa },
     multilinear: {
       plastic_strain: ml.indices.map((i) => plastic[i]),
       stress_mpa: ml.indices.map((i) => chrOut[i]),
       extrapolated: ml.indices.map((i) => flags[i]),
     },
-    ramberg_osgood: ro ? { e_mpa: eMpa, sigma0_mpa: ro.sigma0Mpa, m: ro.m } : null,
+    ramberg_osgood: ro ? { e_mpa: eMpa, sigma0_mpa: ro.sigma0Mpa, m: ro.m, rmse_mpa: ro.rmseMpa } : null,
   };
 
   return {

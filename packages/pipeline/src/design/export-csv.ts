@@ -170,6 +170,7 @@ export function idealizedToCsv(curve: DesignCurve): string {
     row('bilinear', 'yield_mpa', id.bilinear.yield_mpa);
     row('bilinear', 'hardening_modulus_mpa', id.bilinear.hardening_modulus_mpa);
     row('bilinear', 'tangent_modulus_mpa', id.bilinear.tangent_modulus_mpa);
+    row('bilinear', 'rmse_mpa', id.bilinear.rmse_mpa);
     id.multilinear.plastic_strain.forEach((e, i) => {
       row('multilinear', `p${i + 1}_plastic_strain`, e);
       row('multilinear', `p${i + 1}_stress_mpa`, id.multilinear.stress_mpa[i]);
@@ -179,6 +180,7 @@ export function idealizedToCsv(curve: DesignCurve): string {
       row('ramberg_osgood', 'e_mpa', id.ramberg_osgood.e_mpa);
       row('ramberg_osgood', 'sigma0_mpa', id.ramberg_osgood.sigma0_mpa);
       row('ramberg_osgood', 'm', id.ramberg_osgood.m);
+      row('ramberg_osgood', 'rmse_mpa', id.ramberg_osgood.rmse_mpa);
     }
   }
   return lines.join('\n') + '\n';
@@ -221,7 +223,8 @@ export function parseIdealizedCsv(text: string): DesignResult<IdealizedTable> {
   const bY = need('bilinear.yield_mpa');
   const bH = need('bilinear.hardening_modulus_mpa');
   const bT = nullableNum('bilinear.tangent_modulus_mpa');
-  const b1 = bad(eppE, eppY, bE, bY, bH, bT);
+  const bR = need('bilinear.rmse_mpa');
+  const b1 = bad(eppE, eppY, bE, bY, bH, bT, bR);
   if (b1) return fail('bad_idealized', `missing or bad value for ${b1.bad}`);
   const ml: IdealizedCurves['multilinear'] = { plastic_strain: [], stress_mpa: [], extrapolated: [] };
   for (let i = 1; vals.has(`multilinear.p${i}_plastic_strain`); i++) {
@@ -240,9 +243,10 @@ export function parseIdealizedCsv(text: string): DesignResult<IdealizedTable> {
     const e = nullableNum('ramberg_osgood.e_mpa');
     const s0 = need('ramberg_osgood.sigma0_mpa');
     const m = need('ramberg_osgood.m');
-    const b3 = bad(e, s0, m);
+    const r = need('ramberg_osgood.rmse_mpa');
+    const b3 = bad(e, s0, m, r);
     if (b3) return fail('bad_idealized', `missing or bad value for ${b3.bad}`);
-    ro = { e_mpa: e as number | null, sigma0_mpa: s0 as number, m: m as number };
+    ro = { e_mpa: e as number | null, sigma0_mpa: s0 as number, m: m as number, rmse_mpa: r as number };
   }
   return {
     ok: true,
@@ -250,7 +254,7 @@ export function parseIdealizedCsv(text: string): DesignResult<IdealizedTable> {
       ...common.value,
       idealized: {
         elastic_perfectly_plastic: { e_mpa: eppE as number | null, yield_mpa: eppY as number },
-        bilinear: { e_mpa: bE as number | null, yield_mpa: bY as number, hardening_modulus_mpa: bH as number, tangent_modulus_mpa: bT as number | null },
+        bilinear: { e_mpa: bE as number | null, yield_mpa: bY as number, hardening_modulus_mpa: bH as number, tangent_modulus_mpa: bT as number | null, rmse_mpa: bR as number },
         multilinear: ml,
         ramberg_osgood: ro,
       },

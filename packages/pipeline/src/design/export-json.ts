@@ -97,6 +97,7 @@ function checkCurve(v: unknown, path: string): DesignCurve {
     num(bl.yield_mpa, `${p}.bilinear.yield_mpa`);
     num(bl.hardening_modulus_mpa, `${p}.bilinear.hardening_modulus_mpa`);
     numOrNull(bl.tangent_modulus_mpa, `${p}.bilinear.tangent_modulus_mpa`);
+    num(bl.rmse_mpa, `${p}.bilinear.rmse_mpa`);
     const ml = obj(id.multilinear, `${p}.multilinear`);
     const mx = arr(ml.plastic_strain, `${p}.multilinear.plastic_strain`, num);
     arr(ml.stress_mpa, `${p}.multilinear.stress_mpa`, num, mx.length);
@@ -106,6 +107,7 @@ function checkCurve(v: unknown, path: string): DesignCurve {
       numOrNull(ro.e_mpa, `${p}.ramberg_osgood.e_mpa`);
       num(ro.sigma0_mpa, `${p}.ramberg_osgood.sigma0_mpa`);
       num(ro.m, `${p}.ramberg_osgood.m`);
+      num(ro.rmse_mpa, `${p}.ramberg_osgood.rmse_mpa`);
     }
   }
   arr(o.warnings, `${path}.warnings`, str);

@@ -10,6 +10,8 @@
 export interface BilinearFit {
   hardeningModulusMpa: number;
   tangentModulusMpa: number | null;
+  /** Root-mean-square stress error over the points (MPa). */
+  rmseMpa: number;
 }
 
 export function fitBilinearHardening(plasticStrain: readonly number[], stressMpa: readonly number[], yieldMpa: number, eMpa: number | null): BilinearFit {
@@ -23,5 +25,8 @@ export function fitBilinearHardening(plasticStrain: readonly number[], stressMpa
   }
   const h = sxx > 0 ? sxy / sxx : 0;
   const tangent = eMpa !== null && eMpa > 0 && eMpa + h > 0 ? (eMpa * h) / (eMpa + h) : null;
-  return { hardeningModulusMpa: h, tangentModulusMpa: tangent };
+  let sse = 0;
+  for (let i = 0; i < plasticStrain.length; i++) sse += (stressMpa[i] - yieldMpa - h * (plasticStrain[i] - x0)) ** 2;
+  const rmseMpa = plasticStrain.length > 0 ? Math.sqrt(sse / plasticStrain.length) : 0;
+  return { hardeningModulusMpa: h, tangentModulusMpa: tangent, rmseMpa };
 }

@@ -80,10 +80,14 @@ export interface IdealizedCurves {
    * true plastic strain (dσ/dεp); `tangent_modulus_mpa` the matching slope against total strain,
    * E·H/(E + H), where E is known.
    */
-  bilinear: { e_mpa: number | null; yield_mpa: number; hardening_modulus_mpa: number; tangent_modulus_mpa: number | null };
+  bilinear: { e_mpa: number | null; yield_mpa: number; hardening_modulus_mpa: number; tangent_modulus_mpa: number | null; rmse_mpa: number };
   multilinear: { plastic_strain: number[]; stress_mpa: number[]; extrapolated: boolean[] };
-  /** ε = σ/E + 0.002·(σ/σ0)^m; `null` members where the fit is not possible. */
-  ramberg_osgood: { e_mpa: number | null; sigma0_mpa: number; m: number } | null;
+  /**
+   * ε = σ/E + 0.002·(σ/σ0)^m, σ0 = the characteristic curve's stress at εp = 0.002 (its Rp0.2 in
+   * true stress) where the valid range covers it, m by least squares; `null` where the fit is not
+   * possible. `rmse_mpa`: stress error of the set over the valid points.
+   */
+  ramberg_osgood: { e_mpa: number | null; sigma0_mpa: number; m: number; rmse_mpa: number } | null;
 }
 
 /** One group's characteristic curve (JSON contract of `fractile curves`, extended). */
