@@ -10,3 +10,4 @@ export * from './aggregate/stage.ts';
 export * from './monitor/stage.ts';
 export * from './design-stage.ts';
 export * from './design/index.ts';
+export * from './reduce/task.ts';

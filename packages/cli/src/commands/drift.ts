@@ -26,7 +26,8 @@ export const command: CommandModule = {
         .option('--ewma-l <L>', 'EWMA limit width L in SDs (default 2.814, ARL0 ≈ 500 with λ = 0.1)')
         .option('--cusum-k <k>', 'CUSUM reference value k in SDs (default 0.5)')
         .option('--cusum-h <h>', 'CUSUM decision interval h in SDs (default 5)')
-        .option('--catalog <file>', 'grade catalog for the spec minima (default: the catalog of the last reduce)'),
+        .option('--catalog <file>', 'grade catalog for the spec minima (default: the catalog of the last reduce)')
+        .option('--all-rules', 'every chart signal is an alert (default: only signals toward a specification limit of the property)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
       const g = globals(cmd);
       let baseline: { firstN?: number; from?: string; to?: string } | undefined;
@@ -48,7 +49,7 @@ export const command: CommandModule = {
       };
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION });
+        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits' });
         log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts, ${r.change_points.length} change points`);
         const flat = r.alerts.map((a) => ({ group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
         emit(g.format, driftContract(r), flat);

@@ -20,6 +20,25 @@ export interface DriftOptions {
   filter?: PropertyFilter;
   catalog: Catalog | null;
   codeVersion: string;
+  /**
+   * Which chart signals become alerts. 'toward-limits' (default): only signals in the direction of
+   * a specification limit the property has (downward rules where there is a minimum, upward ones
+   * where there is a maximum; both where it has none), and never a single moving range — the
+   * charts still show every signal. 'all': every rule.
+   */
+  alertRules?: 'toward-limits' | 'all';
+}
+
+const DOWNWARD_RULES = new Set(['individuals-below-lcl', 'ewma-low', 'cusum-low', 'change-point-down', 'capability-margin']);
+const UPWARD_RULES = new Set(['individuals-above-ucl', 'ewma-high', 'cusum-high', 'change-point-up']);
+
+/** Whether a signal of `rule` is an alert for a property with these limits (see alertRules). */
+export function alertMatters(rule: string, limits: { lower: number | null; upper: number | null }, mode: 'toward-limits' | 'all' = 'toward-limits'): boolean {
+  if (mode === 'all') return true;
+  if (limits.lower === null && limits.upper === null) return DOWNWARD_RULES.has(rule) || UPWARD_RULES.has(rule);
+  if (DOWNWARD_RULES.has(rule)) return limits.lower !== null;
+  if (UPWARD_RULES.has(rule)) return limits.upper !== null;
+  return false;
 }
 
 export const DEFAULT_DRIFT_PROPERTIES: PropertyKey[] = ['yield_mpa', 'rm_mpa'];
@@ -88,10 +107,11 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
         .map((ri, j) => ({ value: g.columns[p][j], date: rows[ri].tested_on, testId: `${rows[ri].lab}/${rows[ri].test_id}`, heat: rows[ri].heat }))
         .filter((x) => Number.isFinite(x.value));
       if (pts.length < MIN_SERIES) continue;
-      const lowerSpec = limitsFor(p, spec).lower;
+      const limits = limitsFor(p, spec);
+      const lowerSpec = limits.lower;
       const m = monitorSeries(pts, { ...opts.monitor, lowerSpec });
       series.push({ group: g.key, property: p, lower_spec: lowerSpec, monitor: m });
-      for (const a of m.alerts) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
+      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
       for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, shift: c.shift, ci: c.ci });
     }
   }
@@ -123,6 +143,7 @@ export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftR
     by: opts.by,
     properties: opts.properties ?? DEFAULT_DRIFT_PROPERTIES,
     monitor: opts.monitor ?? {},
+    alert_rules: opts.alertRules ?? 'toward-limits',
     filter: opts.filter ?? {},
     spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
   };
