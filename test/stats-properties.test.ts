@@ -4,11 +4,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import {
+  fitWeibull,
   isotonicNonDecreasing,
   noncentralTCdf,
   noncentralTQuantile,
   normalToleranceFactor,
   percentile,
+  summarizeProperty,
 } from '@fractile/stats';
 
 describe('laws of the tolerance factor (ISO 16269-6 construction)', () => {
@@ -89,6 +91,45 @@ describe('laws of percentiles and isotonic regression', () => {
         },
       ),
       { seed: 1972 },
+    );
+  });
+});
+
+describe('laws of the fits and of the summary', () => {
+  it('the Weibull MLE satisfies its score equations for any positive sample with spread', () => {
+    fc.assert(
+      fc.property(fc.array(fc.double({ min: 1e-3, max: 1e4, noNaN: true }), { minLength: 3, maxLength: 80 }), (xs) => {
+        const f = fitWeibull(xs);
+        if (new Set(xs).size < 2) return;
+        expect(f).not.toBeNull();
+        const { shape: k, scale: lam } = f!.params;
+        let s0 = 0;
+        let s1 = 0;
+        let sl = 0;
+        for (const v of xs) {
+          const e = Math.pow(v / lam, k);
+          s0 += e;
+          s1 += e * Math.log(v);
+          sl += Math.log(v);
+        }
+        expect(Math.abs(s0 / xs.length - 1)).toBeLessThan(1e-8);
+        // Lawless (2003) profile score: Σ x^k ln x / Σ x^k − 1/k − mean(ln x) = 0, scaled by k.
+        expect(Math.abs(k * (s1 / s0 - sl / xs.length) - 1)).toBeLessThan(1e-8);
+      }),
+      { seed: 2003, numRuns: 200 },
+    );
+  });
+
+  it('summarizeProperty never throws and always returns plain JSON (no NaN), whatever the values', () => {
+    const value = fc.oneof(fc.double({ min: -1e3, max: 1e3 }), fc.constantFrom(NaN, Infinity, 0, 350, 350.5));
+    fc.assert(
+      fc.property(fc.array(value, { maxLength: 70 }), fc.option(fc.double({ min: 0, max: 500, noNaN: true })), (xs, lower) => {
+        const s = summarizeProperty(xs, { lower });
+        const text = JSON.stringify(s);
+        expect(text).not.toMatch(/NaN|Infinity/);
+        expect(JSON.parse(text)).toEqual(s);
+      }),
+      { seed: 500, numRuns: 200 },
     );
   });
 });
