@@ -29,6 +29,8 @@ describe('report structure', async () => {
     const figures = html.match(/<figure [^>]*>[\s\S]*?<\/figure>/g)!;
     expect(figures.every((f) => /^<figure [^>]*><svg /.test(f))).toBe(true);
     expect(html).toContain('id="drift"');
+    // alert magnitude with its unit
+    expect(html).toContain('<td class="num">−22.0 MPa</td>');
     expect(html).toContain('id="quality"');
   });
 
@@ -142,5 +144,20 @@ describe('report structure', async () => {
     expect(count(page, '<svg ')).toBe(12 * 13 + 16);
     // generous bound for a loaded CI machine; the figure itself is reported above
     expect(seconds).toBeLessThan(30);
+  });
+});
+
+describe('stage objects shown as text', () => {
+  it('lists nested idealizations readably and does not repeat the caution from provenance', async () => {
+    const one = sampleReportData({ groups: 1, properties: 1, controlCharts: 0 });
+    const page = await renderReport(one);
+    expect(page).toContain('<dt>bilinear</dt><dd>e_mpa 206000 · yield_mpa 355 · hardening_modulus_mpa 1480.5 · tangent_modulus_mpa 1469.9 · rmse_mpa 6.1</dd>');
+    expect(page).toContain('<dt>ramberg_osgood</dt><dd>–</dd>');
+    // 12 grid values of the multilinear set, shown as count and range; flags as a count
+    expect(page).toMatch(/<dt>multilinear<\/dt><dd>plastic_strain 12 values, 0 … 0\.0366667 · stress_mpa 12 values, [0-9.]+ … [0-9.]+ · extrapolated 12 flags, 0 set<\/dd>/);
+    expect(page).toContain('<dt>settings</dt><dd>grid_points 61 · fractile 0.05 · confidence 0.75</dd>');
+    expect(page).not.toContain('<dt>caution</dt>');
+    expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
+    expect(page).toContain('extrapolated by the fitted swift law, not measured');
   });
 });

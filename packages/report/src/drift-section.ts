@@ -19,6 +19,14 @@ function testsText(tests: readonly DriftTestRef[]): string {
   return tests.length > 6 ? `${shown} … (${tests.length} in all)` : shown;
 }
 
+function magnitudeText(magnitude: number | null, unit: string | undefined, property: string): string {
+  const value = formatSignificant(magnitude, 3);
+  if (magnitude === null || unit === undefined) return value;
+  if (unit === 'sd') return `${value} σ`;
+  if (unit === 'property-units') return `${value} ${propertyLabel(property).unit}`;
+  return `${value} ${unit}`;
+}
+
 function propertyName(property: string): string {
   const l = propertyLabel(property);
   return `${l.name} [${l.unit}]`;
@@ -32,7 +40,7 @@ export function driftTables(result: DriftResult, maxRows: number): string {
       propertyName(a.property),
       { text: a.rule, className: 'mono' },
       a.first_date,
-      formatSignificant(a.magnitude, 3),
+      magnitudeText(a.magnitude, a.magnitude_unit, a.property),
       { text: testsText(a.tests), className: 'mono' },
     ]),
     { maxRows, emptyText: 'No drift alerts.' },

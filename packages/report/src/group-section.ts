@@ -4,7 +4,7 @@
  */
 import { chartFigure } from './chart-figure.ts';
 import { renderCurvesChart } from './curves-chart.ts';
-import { formatInteger } from './format-number.ts';
+import { formatInteger, formatShort } from './format-number.ts';
 import { groupLabel } from './group-label.ts';
 import { headlineCharacteristic, renderHistogram } from './histogram-chart.ts';
 import { escapeHtml } from './html-escape.ts';
@@ -27,7 +27,7 @@ export async function groupSection(group: ReportGroup, index: number): Promise<s
     const svg = await renderCurvesChart(group.curves, group.sample_curves, { idPrefix: `${prefix}-curves` });
     const extrapolation =
       group.curves.extrapolated_from !== null
-        ? ` Dashed beyond plastic strain ${group.curves.extrapolated_from}: extrapolated by the fitted law, not measured.`
+        ? ` Dashed beyond plastic strain ${formatShort(group.curves.extrapolated_from, 4)}: extrapolated by the fitted ${group.curves.extrapolation?.law ? `${group.curves.extrapolation.law} ` : ''}law, not measured.`
         : '';
     curves = `<div class="curve-row">
 ${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's test curves. Bold: median and characteristic true stress. Dotted rule: validity limit.${extrapolation}`)}
@@ -35,7 +35,7 @@ ${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's tes
 <h3>Idealized characteristic curve</h3>
 ${jsonDefinitionList(group.curves.idealized ?? {})}
 <h3>Provenance</h3>
-${jsonDefinitionList(group.curves.provenance ?? {})}
+${jsonDefinitionList(group.curves.provenance ?? {}, ['caution'])}
 </div>
 </div>`;
   }

@@ -69,8 +69,11 @@ export interface CharacteristicCurve {
   valid_to_plastic_strain: number | null;
   /** Plastic strain [–] beyond which the curve is extrapolated by a fitted law, or null. */
   extrapolated_from: number | null;
+  /** The law used beyond `extrapolated_from` (curves stage extension), where known. */
+  extrapolation?: { law: string } | null;
   /** Idealizations of the characteristic curve (fitted laws, bilinear model …), shown as given. */
   idealized: Readonly<Record<string, JsonValue>> | null;
+  /** Provenance as the curves stage records it; a `caution` key is not repeated on the page. */
   provenance: Readonly<Record<string, JsonValue>> | null;
 }
 
@@ -160,6 +163,8 @@ export interface DriftAlert {
   rule: string;
   first_date: string;
   magnitude: number | null;
+  /** 'sd' (multiples of the baseline standard deviation) or 'property-units'; absent means unstated. */
+  magnitude_unit?: string;
   tests: readonly DriftTestRef[];
 }
 

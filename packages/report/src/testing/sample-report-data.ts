@@ -146,8 +146,21 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
       characteristic_mpa: grid.map((ep) => swiftStressMpa(830 + 20 * g, 0.008, 0.165, ep)),
       valid_to_plastic_strain: validTo,
       extrapolated_from: validTo,
-      idealized: { law: 'swift', k_mpa: 830 + 20 * g, epsilon0: 0.008, n: 0.165 },
-      provenance: { settings_hash: 'f00dfeed', tests: curvesPerGroup, code_version: '0.1.0' },
+      extrapolation: { law: 'swift' },
+      idealized: {
+        elastic_perfectly_plastic: { e_mpa: 206000, yield_mpa: 355 },
+        bilinear: { e_mpa: 206000, yield_mpa: 355, hardening_modulus_mpa: 1480.5, tangent_modulus_mpa: 1469.9, rmse_mpa: 6.1 },
+        multilinear: { plastic_strain: grid.slice(0, 12), stress_mpa: grid.slice(0, 12).map((ep) => swiftStressMpa(830, 0.008, 0.165, ep)), extrapolated: grid.slice(0, 12).map((ep) => ep > validTo) },
+        ramberg_osgood: null,
+      },
+      provenance: {
+        group: key,
+        n_tests: curvesPerGroup,
+        settings_hash: 'f00dfeed',
+        settings: { grid_points: 61, fractile: 0.05, confidence: 0.75 },
+        code_version: '0.1.0',
+        caution: 'Statistical estimates from the data given. Verify against the governing codes and have a licensed engineer review before use in design.',
+      },
     };
     const properties: ReportProperty[] = PROPERTIES.slice(0, propertyCount).map((p) => {
       const values = Array.from({ length: valuesPerProperty }, () => p.mean + p.sd * gaussian(random));
@@ -191,6 +204,7 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
         rule: 'ewma_below_lcl',
         first_date: points[firstOut].date,
         magnitude: -22,
+        magnitude_unit: 'property-units',
         tests: points.slice(firstOut).filter((_, i) => i < 3).map((p) => ({ lab: p.lab, test_id: p.test_id })),
       });
     }
