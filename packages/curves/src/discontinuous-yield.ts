@@ -8,8 +8,9 @@
  * the next 0.3 % strain, the stress never rises more than a tolerance (0.3 % of σp or 4× the
  * noise) above σp, and either (a) its 5-point average falls at least max(0.5 % σp, 8× noise)
  * below σp, with the mean over the span at least half that below — an upper yield point — or
- * (b) stays flat and afterwards rises again (5-point averages) at least twice the tolerance over
- * 0.3 % strain, which a continuously (concavely) hardening curve cannot do. The search stops at
+ * (b) stays flat for at least 0.5 % strain and afterwards rises again (5-point averages) at least twice the tolerance over
+ * 0.3 % strain, with a slope at least twice the slope across the flat part — which a
+ * continuously (concavely) hardening curve cannot do. The search stops at
  * maximum force, so a curve whose upper yield is its maximum force counts as continuous.
  *
  * Transient: the descent from ReH to the first minimum and the recovery up to the plateau's
@@ -20,6 +21,9 @@
  * of the plateau stress (at least the tolerance), found by three rounds of trimming the rising
  * end; uniform work hardening starts where a line through the first rising points meets the
  * plateau's median level (a tangent construction; ours).
+ *
+ * With noise above 0.01 % of Rm the search runs on a 7-point moving average (thresholds scaled
+ * to its noise); ReH is then the highest recorded stress within 7 points of the found peak.
  *
  * In: engineering strain (mm/mm), stress (MPa), the index of maximum force, the noise (MPa).
  * Out: indices and values, or null when the curve yields continuously.
@@ -39,6 +43,8 @@ export interface DiscontinuousYield {
 }
 
 const SPAN = 0.003;
+/** least length of a plateau without an upper yield point */
+const FLAT_SPAN = 0.005;
 
 /** sorts in place; returns the median and the lower quartile */
 function medianAndQuartile(values: Float64Array): [number, number] {
@@ -56,7 +62,34 @@ function avg5(stressMpa: ArrayLike<number>, j: number, lo: number, hi: number): 
   return s / (b - a + 1);
 }
 
-export function findDiscontinuousYield(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number): DiscontinuousYield | null {
+const SMOOTH = 7;
+
+export function findDiscontinuousYield(strain: ArrayLike<number>, rawStressMpa: ArrayLike<number>, imax: number, rawNoiseMpa: number): DiscontinuousYield | null {
+  const rm = rawStressMpa[imax];
+  // with noise, the search runs on a 7-point moving average (noise / √7)
+  let stressMpa: ArrayLike<number> = rawStressMpa;
+  let noiseMpa = rawNoiseMpa;
+  if (rawNoiseMpa > 1e-4 * rm) {
+    const sm = new Float64Array(imax + 1);
+    const h = SMOOTH >> 1;
+    for (let i = 0; i <= imax; i++) {
+      const a = Math.max(0, i - h), b = Math.min(imax, i + h);
+      let sum = 0;
+      for (let k = a; k <= b; k++) sum += rawStressMpa[k];
+      sm[i] = sum / (b - a + 1);
+    }
+    stressMpa = sm;
+    noiseMpa = rawNoiseMpa / Math.sqrt(SMOOTH);
+  }
+  const found = searchYieldPoint(strain, stressMpa, imax, noiseMpa);
+  if (!found || stressMpa === rawStressMpa) return found;
+  // ReH is the highest recorded stress at the peak
+  let top = found.rehIndex;
+  for (let k = Math.max(0, found.rehIndex - SMOOTH); k <= Math.min(imax, found.rehIndex + SMOOTH); k++) if (rawStressMpa[k] > rawStressMpa[top]) top = k;
+  return { ...found, rehIndex: top, rehMpa: rawStressMpa[top], relMpa: Math.min(found.relMpa, rawStressMpa[top]), ypeStrain: Math.max(0, found.plateauEndStrain - strain[top]) };
+}
+
+function searchYieldPoint(strain: ArrayLike<number>, stressMpa: ArrayLike<number>, imax: number, noiseMpa: number): DiscontinuousYield | null {
   const rm = stressMpa[imax];
   let runMax = -Infinity;
   for (let p = 0; p < imax; p++) {
@@ -67,27 +100,32 @@ export function findDiscontinuousYield(strain: ArrayLike<number>, stressMpa: Arr
     const tol = Math.max(0.003 * sp, 4 * noiseMpa);
     const drop = Math.max(0.005 * sp, 8 * noiseMpa);
     let j = p + 1;
-    let minAvg = sp;
     let sum = 0;
     let failed = false;
     while (j <= imax && strain[j] <= strain[p] + SPAN) {
       if (stressMpa[j] > sp + tol) { failed = true; break; }
       sum += stressMpa[j];
-      const a = avg5(stressMpa, j, p + 1, imax);
-      if (a < minAvg) minAvg = a;
       j++;
     }
     if (failed || j > imax || j === p + 1) continue;
     const mean = sum / (j - p - 1);
+    let minAvg = sp;
+    for (let k = p + 1; k < j; k++) { const a = avg5(stressMpa, k, p + 1, imax); if (a < minAvg) minAvg = a; }
     let kind: DiscontinuousYield['kind'];
     if (minAvg <= sp - drop && mean <= sp - drop / 2) kind = 'upper_yield_point';
     else {
       let q = j;
       while (q <= imax && stressMpa[q] <= sp + tol) q++;
-      if (q > imax) continue;
+      if (q > imax || strain[q] - strain[p] < FLAT_SPAN) continue;
       let r = q;
       while (r <= imax && strain[r] < strain[q] + SPAN) r++;
-      if (r > imax || avg5(stressMpa, r, p, imax) - avg5(stressMpa, q, p, imax) < 2 * tol) continue;
+      if (r > imax) continue;
+      // concavity check: the slope after the flat part must be at least twice the slope across it
+      const sq = avg5(stressMpa, q, p, imax);
+      const rise = avg5(stressMpa, r, p, imax) - sq;
+      const slopeFlat = (sq - avg5(stressMpa, Math.min(p + 2, q), p, imax)) / Math.max(strain[q] - strain[p], 1e-12);
+      const slopeAfter = rise / Math.max(strain[r] - strain[q], 1e-12);
+      if (rise < 2 * tol || slopeAfter < 2 * Math.max(0, slopeFlat)) continue;
       kind = 'flat_plateau';
     }
     // ReH: the top of the peak, before the stress first falls by the drop threshold

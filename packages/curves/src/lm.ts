@@ -2,13 +2,18 @@
  * Nonlinear least squares through ml-levenberg-marquardt (Levenberg–Marquardt), with the
  * conditioning that package leaves to the caller: parameters are scaled by their start values
  * (so every one starts at 1) and residuals by a typical y, and the analytical Jacobian is passed.
- * The package stops on an absolute error; here it runs in rounds of 30 iterations until the sum
- * of squares improves by less than 1e-12 relative (at most 20 rounds).
+ * The package stops on an absolute error only; here it runs in rounds of 5 iterations until the
+ * sum of squares improves by less than 1e-10 relative (at most 40 rounds). The package allocates
+ * per point and iteration, so callers on a hot path should pass a few hundred points at most.
  *
  * In: x, y, model f(θ, x), its gradient ∂f/∂θ, start θ0 (non-zero entries), bounds on θ.
  * Out: θ and the sum of squared residuals (y units), or null when the result is not finite.
  */
 import { levenbergMarquardt } from 'ml-levenberg-marquardt';
+
+const ROUNDS = 40;
+const ITERATIONS_PER_ROUND = 5;
+const REL_TOL = 1e-10;
 
 export type Model = (theta: readonly number[], x: number) => number;
 export type ModelGradient = (theta: readonly number[], x: number) => number[];
@@ -34,17 +39,17 @@ export function leastSquares(
   let p: number[] = new Array(np).fill(1);
   let err = Infinity;
   try {
-    for (let round = 0; round < 20; round++) {
+    for (let round = 0; round < ROUNDS; round++) {
       const r = levenbergMarquardt(data, fn, {
         initialValues: p, jacobianFunction: jac, minValues: lo, maxValues: hi,
-        maxIterations: 30, errorTolerance: 0, damping: 1e-3,
+        maxIterations: ITERATIONS_PER_ROUND, errorTolerance: 0, damping: 1e-3,
       });
       const e = r.parameterError;
       if (!(e <= err)) break;
       const improved = err - e;
       p = r.parameterValues;
       err = e;
-      if (improved <= 1e-12 * e || e === 0) break;
+      if (improved <= REL_TOL * e || e === 0) break;
     }
   } catch {
     return null;

@@ -35,6 +35,10 @@ import { trueCurve } from './true-curve.ts';
 import type { CurveInput, LawFits, ReduceOutcome, ReduceSettings, TestProperties } from './types.ts';
 import { findUnloadLoops } from './unload-loops.ts';
 
+/** points handed to the law fits (evenly spaced by index over the fitted range) */
+const FIT_POINTS = 80;
+const FIT_POINTS_RO = 100;
+
 const fail = (code: string, message: string): ReduceOutcome => ({ ok: false, code, message });
 const round = (v: number, digits = 6): number => Number(v.toPrecision(digits));
 
@@ -117,7 +121,10 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const onset = offsetYield(e, s, E, 0, 1e-4, 0, imax + 1);
   const plasticFrom = rp && rp.index <= imax ? rp.index : onset ? onset.index : -1;
   const shape = shapeClass(e, s, plasticFrom, imax, E, rmMpa, dyValid);
-  const slips = countSlips(e, s, imax, noise, rmMpa, dyValid ? dy.rehIndex : -1, dyValid ? dy.plateauEndIndex : -1);
+  // the yield-point range counts from the onset of plastic flow (a first peak lower than later
+  // serrations is still part of yielding, not a slip)
+  const ypFrom = dyValid ? Math.min(dy.rehIndex, onset ? onset.index : dy.rehIndex) : -1;
+  const slips = countSlips(e, s, imax, noise, rmMpa, ypFrom, dyValid ? dy.plateauEndIndex : -1);
   if (slips > 0) flags.add('slipping');
 
   const grid = onset
@@ -129,10 +136,10 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   if (settings.fitLaws) {
     let from = dyValid ? dy.plateauEndIndex : plasticFrom;
     if (from < 0) from = imax;
-    const idx = decimate(from, imax, 200);
+    const idx = decimate(from, imax, FIT_POINTS);
     const et = new Float64Array(idx.length), ep = new Float64Array(idx.length), st = new Float64Array(idx.length);
     for (let k = 0; k < idx.length; k++) { et[k] = tc.trueStrain[idx[k]]; ep[k] = tc.plasticStrain[idx[k]]; st[k] = tc.trueStressMpa[idx[k]]; }
-    const ro = decimate(0, imax, 300);
+    const ro = decimate(0, imax, FIT_POINTS_RO);
     const re = new Float64Array(ro.length), rs = new Float64Array(ro.length);
     for (let k = 0; k < ro.length; k++) { re[k] = e[ro[k]]; rs[k] = s[ro[k]]; }
     fitsPoints = idx.length;
