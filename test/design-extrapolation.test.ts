@@ -100,6 +100,26 @@ describe('extrapolation by a fitted law', () => {
     });
   });
 
+  it('is not bent by a yield plateau: the law is fitted to the tail of the valid range', () => {
+    // Source: the Swift law after a Lüders-like plateau, σ = K·max(c, (ε0 + εp)^n) — linear in K,
+    // so the characteristic curve is K_char times the same shape (K_char by scipy.stats.nct).
+    const eps0 = 0.002;
+    const nExp = 0.2;
+    const plateauEnd = 0.02;
+    const c0 = Math.pow(eps0 + plateauEnd, nExp);
+    const shape = (e: number) => Math.max(c0, Math.pow(eps0 + e, nExp));
+    const ks = normals(551, 25, 800, 30);
+    const tests = ks.map((k, i) => lawCurve(`P-${i}`, g, (e) => k * shape(e), 0.1, k * c0));
+    const ref = scipyLowerBound(ks, 0.95, 0.75);
+    const c = characteristicCurve({ group: {}, grid: g, tests }, opts({ extrapolate: 'swift' }), PROV);
+    expect(c.valid_to_plastic_strain).toBeCloseTo(0.1, 12);
+    expect(c.extrapolation!.fit_from_plastic_strain).toBeCloseTo(0.025, 12);
+    c.plastic_strain.forEach((e, i) => {
+      const exact = ref.bound * shape(e);
+      expect(Math.abs(c.characteristic_mpa[i] - exact) / exact).toBeLessThan(0.0005);
+    });
+  });
+
   it('does nothing, and says so, where the valid range already reaches the target', () => {
     const ks = normals(801, 12, 800, 30);
     const tests = ks.map((k, i) => lawCurve(`N-${i}`, g, (e) => k * Math.pow(0.01 + e, 0.2), 0.2, k * Math.pow(0.01, 0.2)));

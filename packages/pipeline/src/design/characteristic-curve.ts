@@ -13,8 +13,9 @@
  *     practice for nonlinear analysis input; with an offset yield, e.g. Rp0.2, the recorded stress
  *     at εp = 0 is the end of proportionality, below the yield). The characteristic curve is then
  *     held at or below the median; min/max of non-decreasing sequences stay non-decreasing.
- *  4. Optionally, past the valid range, a hardening law fitted to each curve extends it; those
- *     points are flagged `extrapolated`.
+ *  4. Optionally, past the valid range, a hardening law fitted to each curve (over the valid range
+ *     without its first quarter: the tail the extrapolation continues) extends it, joined at the
+ *     last valid point; those points are flagged `extrapolated`.
  * Idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood) are fitted to
  * the valid part (the multilinear one to the whole output, flags kept), and engineering
  * counterparts follow from E.
@@ -74,6 +75,24 @@ function checkOptions(grid: readonly number[], opts: DesignOptions): void {
     if (!Number.isFinite(grid[i]) || grid[i] < 0) throw new DesignInputError('bad_grid', `grid point ${i} must be a finite plastic strain ≥ 0, got ${grid[i]}`);
     if (i > 0 && !(grid[i] > grid[i - 1])) throw new DesignInputError('bad_grid', `grid must increase strictly (point ${i}: ${grid[i]} after ${grid[i - 1]})`);
   }
+}
+
+/** Share of the valid range, from its start, left out of the law fit for an extrapolation. */
+const FIT_SKIP_FRACTION = 0.25;
+/** Fewest points a law fit for an extrapolation gets (the window widens to reach it). */
+const FIT_MIN_POINTS = 8;
+
+/**
+ * First index of the window a law is fitted on for an extrapolation: the valid range without its
+ * first quarter, so that a yield plateau or the elastic–plastic knee does not bend the tail the
+ * extrapolation continues; widened to at least FIT_MIN_POINTS points.
+ */
+function fitWindowStart(x: readonly number[]): number {
+  const last = x.length - 1;
+  const from = x[0] + FIT_SKIP_FRACTION * (x[last] - x[0]);
+  let i = 0;
+  while (i < last && x[i] < from) i++;
+  return Math.max(0, Math.min(i, last + 1 - FIT_MIN_POINTS));
 }
 
 /** Points past the valid range up to `target`: the grid's own, then continued with its last step. */
@@ -256,8 +275,9 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
     if (at.length === 0) {
       warnings.push(`nothing_to_extrapolate: the valid range already reaches plastic strain ${target}`);
     } else {
-      const fitC = fitLaw(opts.extrapolate, x, chr, eMpa);
-      const fitM = fitLaw(opts.extrapolate, x, med, eMpa);
+      const iFit = fitWindowStart(x);
+      const fitC = fitLaw(opts.extrapolate, x.slice(iFit), chr.slice(iFit), eMpa);
+      const fitM = fitLaw(opts.extrapolate, x.slice(iFit), med.slice(iFit), eMpa);
       if (!fitC || !fitM) {
         warnings.push(`extrapolation_failed: the ${opts.extrapolate} law could not be fitted to the valid part; no extrapolation`);
       } else {
@@ -275,7 +295,7 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
           flags.push(true);
         }
         extrapolatedFrom = x[L];
-        extrapolation = { law: opts.extrapolate, params_characteristic: fitC.params, params_median: fitM.params, rmse_mpa: fitC.rmseMpa };
+        extrapolation = { law: opts.extrapolate, fit_from_plastic_strain: x[iFit], params_characteristic: fitC.params, params_median: fitM.params, rmse_mpa: fitC.rmseMpa };
         warnings.push(`extrapolated: past plastic strain ${x[L]} the curves follow the fitted ${opts.extrapolate} law, not test data`);
       }
     }

@@ -74,6 +74,7 @@ function checkCurve(v: unknown, path: string): DesignCurve {
   if (o.extrapolation !== null) {
     const e = obj(o.extrapolation, `${path}.extrapolation`);
     str(e.law, `${path}.extrapolation.law`);
+    num(e.fit_from_plastic_strain, `${path}.extrapolation.fit_from_plastic_strain`);
     obj(e.params_characteristic, `${path}.extrapolation.params_characteristic`);
     obj(e.params_median, `${path}.extrapolation.params_median`);
     num(e.rmse_mpa, `${path}.extrapolation.rmse_mpa`);

@@ -106,7 +106,14 @@ export interface DesignCurve {
   characteristic_uniform_plastic_strain: number | null;
   /** Plastic strain where extrapolation starts, or `null` without extrapolation. */
   extrapolated_from: number | null;
-  extrapolation: { law: ExtrapolationLaw; params_characteristic: Record<string, number>; params_median: Record<string, number>; rmse_mpa: number } | null;
+  /** The fitted law, the plastic strain its fit window starts at, and its stress error (characteristic). */
+  extrapolation: {
+    law: ExtrapolationLaw;
+    fit_from_plastic_strain: number;
+    params_characteristic: Record<string, number>;
+    params_median: Record<string, number>;
+    rmse_mpa: number;
+  } | null;
   extrapolated: boolean[];
   e_mpa: number | null;
   characteristic_yield_mpa: number | null;
