@@ -8,7 +8,7 @@ import type { Database, StageName } from '@fractile/store';
 import { hashOf } from './hash.ts';
 
 /** Version of the pipeline's algorithms; bump when a change alters results for the same input. */
-export const ALGORITHM_VERSION = '1';
+export const ALGORITHM_VERSION = '2';
 
 /** Stores a settings body under its hash (once) and returns the hash. */
 export async function saveSettings(db: Kysely<Database>, stage: StageName, body: object): Promise<string> {

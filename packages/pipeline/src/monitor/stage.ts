@@ -11,7 +11,7 @@ import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import { limitsFor } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { ALGORITHM_VERSION, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
 
 export interface DriftOptions {
   by: GroupField[];
@@ -40,6 +40,17 @@ export function alertMatters(rule: string, limits: { lower: number | null; upper
   if (UPWARD_RULES.has(rule)) return limits.upper !== null;
   return false;
 }
+
+/**
+ * Rolling Cpk against the minimum below which the capability rule fires: 2/3, a rolling window
+ * whose normal model puts about 2.3 % of the product below the minimum (mean less than 2 SD above
+ * it). Mill populations commonly sit 2–3 SD above the minimum, so the manufacturing target of 1.33
+ * would raise a standing alarm rather than a drift alarm.
+ */
+export const DRIFT_MIN_CPK = 2 / 3;
+
+/** A change point is an alert when it is the series' last (the current level) and moves ≥ 1 SD. */
+const CHANGE_ALERT_MIN_SD = 1;
 
 export const DEFAULT_DRIFT_PROPERTIES: PropertyKey[] = ['yield_mpa', 'rm_mpa'];
 
@@ -109,9 +120,11 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
       if (pts.length < MIN_SERIES) continue;
       const limits = limitsFor(p, spec);
       const lowerSpec = limits.lower;
-      const m = monitorSeries(pts, { ...opts.monitor, lowerSpec });
+      const m = monitorSeries(pts, { minCpk: DRIFT_MIN_CPK, ...opts.monitor, lowerSpec });
       series.push({ group: g.key, property: p, lower_spec: lowerSpec, monitor: m });
-      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
+      const lastChange = Math.max(-1, ...m.alerts.filter((a) => a.rule.startsWith('change-point')).map((a) => a.first_index));
+      const current = (a: (typeof m.alerts)[number]) => !a.rule.startsWith('change-point') || opts.alertRules === 'all' || (a.first_index === lastChange && Math.abs(a.magnitude_sd) >= CHANGE_ALERT_MIN_SD);
+      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules) && current(a)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
       for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, shift: c.shift, ci: c.ci });
     }
   }
@@ -140,7 +153,7 @@ export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftR
   const db = store.db;
   const rows = await loadProperties(db, opts.filter);
   const settings = {
-    by: opts.by,
+    algorithm_version: ALGORITHM_VERSION, by: opts.by,
     properties: opts.properties ?? DEFAULT_DRIFT_PROPERTIES,
     monitor: opts.monitor ?? {},
     alert_rules: opts.alertRules ?? 'toward-limits',
