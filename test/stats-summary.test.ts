@@ -256,7 +256,8 @@ rp = 0.8 * rm + rng.normal(0, 8, n)
 ag = np.round(-0.05 * rm + rng.normal(40, 1.5, n))  # rounded: ties
 rp[[3, 17, 40]] = np.nan
 ag[[5, 17]] = np.nan
-print(json.dumps(dict(rm_mpa=rm.tolist(), rp02_mpa=[None if np.isnan(v) else v for v in rp], ag_pct=[None if np.isnan(v) else v for v in ag])))`,
+rt = np.round(0.9 * rm + rng.normal(0, 5, n))  # complete, like rm: the pair reuses per-column ranks
+print(json.dumps(dict(rm_mpa=rm.tolist(), rp02_mpa=[None if np.isnan(v) else v for v in rp], ag_pct=[None if np.isnan(v) else v for v in ag], rt05_mpa=rt.tolist())))`,
     );
     const columns: Record<string, number[]> = {};
     for (const [k, v] of Object.entries(cols)) columns[k] = v.map((e) => (e === null ? NaN : e));
@@ -273,9 +274,9 @@ for a in names:
 print(json.dumps(dict(p=P, s=S, n=N)))`,
       { names: out.properties, cols },
     );
-    expect(out.properties).toEqual(['rm_mpa', 'rp02_mpa', 'ag_pct']);
-    for (let i = 0; i < 3; i++)
-      for (let j = 0; j < 3; j++) {
+    expect(out.properties).toEqual(['rm_mpa', 'rp02_mpa', 'ag_pct', 'rt05_mpa']);
+    for (let i = 0; i < 4; i++)
+      for (let j = 0; j < 4; j++) {
         expect(out.n[i][j]).toBe(ref.n[i][j]);
         expect(Math.abs(out.pearson[i][j]! - ref.p[i][j])).toBeLessThan(1e-12);
         expect(Math.abs(out.spearman[i][j]! - ref.s[i][j])).toBeLessThan(1e-12);
