@@ -112,6 +112,19 @@ describe('JSON', () => {
     }
   });
 
+  it('round-trips a group without a valid range (empty arrays, no idealizations)', () => {
+    const g = grid(0, 0.05, 0.005);
+    const few = [0, 1, 2].map((i) => lawCurve(`F${i}`, g, (e) => 400 + 1000 * e, 0.05, 400));
+    const c = characteristicCurve({ group: { grade: 'TG-1' }, grid: g, tests: few }, opts(), PROV);
+    expect(c.plastic_strain).toEqual([]);
+    expect(parseDesignCurveJson(designCurveToJson(c))).toEqual({ ok: true, value: c });
+    const csv = parseDesignCurveCsv(designCurveToCsv(c));
+    expect(csv.ok && csv.value.plastic_strain).toEqual([]);
+    expect(csv.ok && csv.value.warnings).toEqual(c.warnings);
+    const id = parseIdealizedCsv(idealizedToCsv(c));
+    expect(id.ok && id.value.idealized).toBeNull();
+  });
+
   it('names the path of a shape fault', () => {
     const c = JSON.parse(designCurveToJson(sample(11))) as Record<string, unknown>;
     (c.characteristic_mpa as unknown[]).pop();
