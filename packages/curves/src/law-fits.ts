@@ -4,7 +4,8 @@
  *
  * - Hollomon σt = K·εt^n (true stress on total true strain), start from the log–log line;
  * - Swift σt = K·(ε0 + εp)^n (true plastic strain), start from the log–log line on εp and
- *   ε0 = (σ_first/K)^(1/n);
+ *   ε0 = (σ_first/K)^(1/n); ε0 is kept positive, and where it ends on that bound the fit is
+ *   finished with ε0 fixed there;
  * - Voce σt = σ0 + Q·(1 − exp(−b·εp)), start σ0 = first stress, Q = rise, 1/b = εp at 63 % of Q;
  * - Ramberg–Osgood e = σ/E + 0.002·(σ/σ0)^m (engineering, fitted as strain on stress), start E
  *   given or from the first tenth of the points, σ0 from the 0.2 % offset, m from the last point.
@@ -42,6 +43,9 @@ function logLogLine(x: ArrayLike<number>, y: ArrayLike<number>): { n: number; k:
   const n = (sxy - (sx * sy) / m) / v;
   return { n, k: Math.exp((sy - n * sx) / m) };
 }
+
+/** Lower bound of the Swift pre-strain ε0 (the law needs ε0 > 0). */
+const EPS0_MIN = 1e-9;
 
 export const evalHollomon = (p: HollomonParams, eps: number): number => p.k_mpa * Math.pow(eps, p.n);
 export const evalSwift = (p: SwiftParams, epsP: number): number => p.k_mpa * Math.pow(p.eps0 + epsP, p.n);
@@ -98,10 +102,21 @@ export function fitSwift(plasticStrain: ArrayLike<number>, stressMpa: ArrayLike<
   const r = leastSquares(x, y,
     (t, e) => t[0] * Math.pow(t[1] + e, t[2]),
     (t, e) => { const b = t[1] + e, p = Math.pow(b, t[2]); return [p, (t[0] * t[2] * p) / b, t[0] * p * Math.log(b)]; },
-    [start.k, eps0, start.n], [1e-6, 1e-9, 1e-6], [1e7, 1, 2]);
+    [start.k, eps0, start.n], [1e-6, EPS0_MIN, 1e-6], [1e7, 1, 2]);
   if (!r) return null;
-  const params = { k_mpa: r.theta[0], eps0: r.theta[1], n: r.theta[2] };
-  return { params, rmseMpa: Math.sqrt(r.sse / x.length), points: x.length };
+  let params = { k_mpa: r.theta[0], eps0: r.theta[1], n: r.theta[2] };
+  let sse = r.sse;
+  if (params.eps0 <= 10 * EPS0_MIN) {
+    // the pre-strain bound is active (typical after a Lüders plateau): the projected steps of the
+    // package stall along it, so finish with ε0 fixed at the bound
+    const e0 = EPS0_MIN;
+    const r2 = leastSquares(x, y,
+      (t, e) => t[0] * Math.pow(e0 + e, t[1]),
+      (t, e) => { const b = e0 + e, p = Math.pow(b, t[1]); return [p, t[0] * p * Math.log(b)]; },
+      [params.k_mpa, params.n], [1e-6, 1e-6], [1e7, 2]);
+    if (r2 && r2.sse <= sse) { params = { k_mpa: r2.theta[0], eps0: e0, n: r2.theta[1] }; sse = r2.sse; }
+  }
+  return { params, rmseMpa: Math.sqrt(sse / x.length), points: x.length };
 }
 
 export function fitVoce(plasticStrain: ArrayLike<number>, stressMpa: ArrayLike<number>): LawFit<VoceParams> | null {
