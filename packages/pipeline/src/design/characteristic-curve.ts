@@ -27,7 +27,7 @@
 import { isotonicNonDecreasing, normalToleranceFactor } from '@fractile/stats';
 import { median } from 'simple-statistics';
 import { engineeringCounterpart } from './engineering-counterpart.ts';
-import { extrapolateJoined, fitLaw } from './extrapolate-law.ts';
+import { extrapolateJoined, extrapolationPoints, fitLaw, fitWindowStart } from './extrapolate-law.ts';
 import { fitBilinearHardening } from './idealize-bilinear.ts';
 import { multilinearBreakpoints } from './idealize-multilinear.ts';
 import { fitRambergOsgoodPlastic, interpolateAt, RO_OFFSET } from './idealize-ramberg-osgood.ts';
@@ -75,41 +75,6 @@ function checkOptions(grid: readonly number[], opts: DesignOptions): void {
     if (!Number.isFinite(grid[i]) || grid[i] < 0) throw new DesignInputError('bad_grid', `grid point ${i} must be a finite plastic strain ≥ 0, got ${grid[i]}`);
     if (i > 0 && !(grid[i] > grid[i - 1])) throw new DesignInputError('bad_grid', `grid must increase strictly (point ${i}: ${grid[i]} after ${grid[i - 1]})`);
   }
-}
-
-/** Share of the valid range, from its start, left out of the law fit for an extrapolation. */
-const FIT_SKIP_FRACTION = 0.25;
-/** Fewest points a law fit for an extrapolation gets (the window widens to reach it). */
-const FIT_MIN_POINTS = 8;
-
-/**
- * First index of the window a law is fitted on for an extrapolation: the valid range without its
- * first quarter, so that a yield plateau or the elastic–plastic knee does not bend the tail the
- * extrapolation continues; widened to at least FIT_MIN_POINTS points.
- */
-function fitWindowStart(x: readonly number[]): number {
-  const last = x.length - 1;
-  const from = x[0] + FIT_SKIP_FRACTION * (x[last] - x[0]);
-  let i = 0;
-  while (i < last && x[i] < from) i++;
-  return Math.max(0, Math.min(i, last + 1 - FIT_MIN_POINTS));
-}
-
-/** Points past the valid range up to `target`: the grid's own, then continued with its last step. */
-function extrapolationPoints(grid: readonly number[], lastValid: number, target: number): number[] {
-  const out: number[] = [];
-  for (let i = lastValid + 1; i < grid.length && grid[i] <= target * (1 + 1e-12); i++) out.push(grid[i]);
-  const last = grid[grid.length - 1];
-  if (target > last * (1 + 1e-12) && grid.length >= 2) {
-    const step = grid[grid.length - 1] - grid[grid.length - 2];
-    let k = 1;
-    while (last + k * step < target * (1 - 1e-12)) {
-      out.push(last + k * step);
-      k++;
-    }
-    out.push(target);
-  }
-  return out;
 }
 
 export function characteristicCurve(input: CharacteristicCurveInput, opts: DesignOptions, provenance: ProvenanceInput): DesignCurve {

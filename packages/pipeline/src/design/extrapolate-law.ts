@@ -5,6 +5,10 @@
  * is not known). The fits are those of `@fractile/curves`. To keep the curve continuous, the law
  * is joined at the last valid point: σ(εp) = σ_last + law(εp) − law(εp_last).
  *
+ * The fit window is the valid range without its first quarter (`fitWindowStart`); the points
+ * past the valid range continue the grid, then its last step, up to the target
+ * (`extrapolationPoints`).
+ *
  * Units: MPa, mm/mm. Returns `null` where the law cannot be fitted (too few points, no
  * convergence).
  */
@@ -78,6 +82,41 @@ export function extrapolateJoined(fit: FittedLaw, xLast: number, yLast: number, 
     const v = yLast + fit.stressAt(e) - base;
     prev = Number.isFinite(v) ? Math.max(prev, v) : prev;
     out.push(prev);
+  }
+  return out;
+}
+
+/** Share of the valid range, from its start, left out of the law fit for an extrapolation. */
+const FIT_SKIP_FRACTION = 0.25;
+/** Fewest points a law fit for an extrapolation gets (the window widens to reach it). */
+const FIT_MIN_POINTS = 8;
+
+/**
+ * First index of the window a law is fitted on for an extrapolation: the valid range without its
+ * first quarter, so that a yield plateau or the elastic–plastic knee does not bend the tail the
+ * extrapolation continues; widened to at least FIT_MIN_POINTS points.
+ */
+export function fitWindowStart(x: readonly number[]): number {
+  const last = x.length - 1;
+  const from = x[0] + FIT_SKIP_FRACTION * (x[last] - x[0]);
+  let i = 0;
+  while (i < last && x[i] < from) i++;
+  return Math.max(0, Math.min(i, last + 1 - FIT_MIN_POINTS));
+}
+
+/** Points past the valid range up to `target`: the grid's own, then continued with its last step. */
+export function extrapolationPoints(grid: readonly number[], lastValid: number, target: number): number[] {
+  const out: number[] = [];
+  for (let i = lastValid + 1; i < grid.length && grid[i] <= target * (1 + 1e-12); i++) out.push(grid[i]);
+  const last = grid[grid.length - 1];
+  if (target > last * (1 + 1e-12) && grid.length >= 2) {
+    const step = grid[grid.length - 1] - grid[grid.length - 2];
+    let k = 1;
+    while (last + k * step < target * (1 - 1e-12)) {
+      out.push(last + k * step);
+      k++;
+    }
+    out.push(target);
   }
   return out;
 }

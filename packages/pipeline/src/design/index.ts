@@ -8,7 +8,7 @@ export { engineeringCounterpart } from './engineering-counterpart.ts';
 export { fitBilinearHardening, type BilinearFit } from './idealize-bilinear.ts';
 export { multilinearBreakpoints, type MultilinearPoints } from './idealize-multilinear.ts';
 export { fitRambergOsgoodPlastic, rambergOsgoodPlasticStrain, rambergOsgoodStressAtPlastic, interpolateAt, RO_OFFSET, type RambergOsgoodFit } from './idealize-ramberg-osgood.ts';
-export { fitLaw, extrapolateJoined, type FittedLaw } from './extrapolate-law.ts';
+export { fitLaw, extrapolateJoined, extrapolationPoints, fitWindowStart, type FittedLaw } from './extrapolate-law.ts';
 export { DESIGN_CAUTION, designProvenance, designSettings, testIdsSha256 } from './provenance.ts';
 export {
   designCurveToCsv,
