@@ -62,6 +62,16 @@ export async function runCurves(store: Store, opts: CurvesStageOptions): Promise
   return { run, reused: false, ...result };
 }
 
+/**
+ * The yield a test's curve starts from. Where the grade's yield is the upper yield point, the
+ * curve starts at the lower yield (the plateau the material flows at): ReH is a transient peak,
+ * and holding the whole plateau up to it would put the curve above the data.
+ */
+function curveStartYield(r: PropertyRow): number | null {
+  if (r.yield_definition === 'reh' && r.rel_mpa !== null) return r.rel_mpa;
+  return r.yield_mpa;
+}
+
 /** Pure part: group the tests' grid curves and build each group's design curve. */
 export function designCurves(
   rows: PropertyRow[],
@@ -87,7 +97,7 @@ export function designCurves(
       stress_mpa: r.grid_stress_mpa ?? [],
       uniform_plastic_strain: r.uniform_plastic_strain ?? null,
       modulus_gpa: r.modulus_gpa,
-      yield_mpa: r.yield_mpa,
+      yield_mpa: curveStartYield(r),
     }));
     try {
       curves.push(characteristicCurve({ group: g.key, grid, tests }, design, provenance));
