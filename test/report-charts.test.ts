@@ -159,6 +159,7 @@ describe('curves chart', () => {
     expect(svg).toContain('plastic strain [–]');
     expect(svg).toContain('true stress [MPa]');
     expect(svg).toContain('validity limit 0.140');
+    expect(svg).toContain('n = 7 tests · 7 test curves shown');
     const lines = marks(svg, 'line');
     expect(lines.length).toBe(5);
     // all sample curves in one light path, one move-to per curve

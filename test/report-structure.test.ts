@@ -151,11 +151,17 @@ describe('stage objects shown as text', () => {
   it('lists nested idealizations readably and does not repeat the caution from provenance', async () => {
     const one = sampleReportData({ groups: 1, properties: 1, controlCharts: 0 });
     const page = await renderReport(one);
-    expect(page).toContain('<dt>bilinear</dt><dd>e_mpa 206000 · yield_mpa 355 · hardening_modulus_mpa 1480.5 · tangent_modulus_mpa 1469.9 · rmse_mpa 6.1</dd>');
+    expect(page).toContain(
+      '<dt>bilinear</dt><dd><span class="kv-line">e_mpa 206000</span><span class="kv-line">yield_mpa 355</span><span class="kv-line">hardening_modulus_mpa 1480.5</span><span class="kv-line">tangent_modulus_mpa 1469.9</span><span class="kv-line">rmse_mpa 6.1</span></dd>',
+    );
     expect(page).toContain('<dt>ramberg_osgood</dt><dd>–</dd>');
     // 12 grid values of the multilinear set, shown as count and range; flags as a count
-    expect(page).toMatch(/<dt>multilinear<\/dt><dd>plastic_strain 12 values, 0 … 0\.0366667 · stress_mpa 12 values, [0-9.]+ … [0-9.]+ · extrapolated 12 flags, 0 set<\/dd>/);
-    expect(page).toContain('<dt>settings</dt><dd>grid_points 61 · fractile 0.05 · confidence 0.75</dd>');
+    expect(page).toMatch(
+      /<dt>multilinear<\/dt><dd><span class="kv-line">plastic_strain 12 values, 0 … 0\.0366667<\/span><span class="kv-line">stress_mpa 12 values, [0-9.]+ … [0-9.]+<\/span><span class="kv-line">extrapolated 12 flags, 0 set<\/span><\/dd>/,
+    );
+    expect(page).toContain('<dt>settings</dt><dd><span class="kv-line">grid_points 61</span><span class="kv-line">fractile 0.05</span><span class="kv-line">confidence 0.75</span></dd>');
+    // a flat string map (the group) stays on one line
+    expect(page).toMatch(/<dt>group<\/dt><dd>grade G355 · supplier [^<]*<\/dd>/);
     expect(page).not.toContain('<dt>caution</dt>');
     expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
     expect(page).toContain('extrapolated by the fitted swift law, not measured');

@@ -2,14 +2,15 @@
  * True stress–plastic strain chart of one group: every sampled test curve drawn light, the
  * median and characteristic curves bold over them, the extrapolated part of both dashed, and
  * a vertical rule at the plastic strain up to which the curves are supported by the data.
- * Non-finite points are left out. Returns an SVG string.
+ * Non-finite points are left out. Returns an SVG string. All curves charts share one
+ * structure (`curvesTemplate`), compiled once; each supplies its data (`curvesInput`).
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { PALETTE } from './chart-theme.ts';
 import { formatFixed } from './format-number.ts';
 import { groupLabel } from './group-label.ts';
 import type { ChartOptions } from './histogram-chart.ts';
-import { renderSpecToSvg } from './render-svg.ts';
+import { renderTemplateToSvg, signalText, type TemplateInput } from './render-svg.ts';
 import type { CharacteristicCurve, SampleCurve } from './types.ts';
 
 const SERIES = ['individual tests', 'median', 'characteristic'] as const;
@@ -45,7 +46,8 @@ function mainPoints(curve: CharacteristicCurve): MainPoint[] {
   return out;
 }
 
-export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleCurve[], options: ChartOptions = {}): TopLevelSpec {
+/** Signals and data of one curves chart for `curvesTemplate`. */
+export function curvesInput(curve: CharacteristicCurve, samples: readonly SampleCurve[], options: ChartOptions = {}): TemplateInput {
   // All test curves go into one path, broken by a null between curves: one mark instead of
   // one per test keeps rendering of ~100 curves fast.
   const sampleValues: { x: number | null; y: number | null; i: number }[] = [];
@@ -58,29 +60,38 @@ export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleC
     }
     sampleValues.push({ x: null, y: null, i: sampleValues.length });
   }
-  const main = mainPoints(curve);
-  const hasExtrapolation = main.some((p) => p.part === 'extrapolated');
+  const validTo = curve.valid_to_plastic_strain;
+  const limit = validTo !== null && Number.isFinite(validTo) ? [{ x: validTo, text: `validity limit ${formatFixed(validTo, 3)}` }] : [];
+  return {
+    signals: {
+      title_text: options.title ?? 'True stress–plastic strain',
+      subtitle_text: `n = ${curve.n} tests · ${samples.length} test curves shown`,
+    },
+    data: { samples: sampleValues, main: mainPoints(curve), limit },
+  };
+}
+
+/** The chart structure shared by all curves charts; data sets `samples`, `main`, `limit`. */
+export function curvesTemplate(width: number, height: number, dashLegend: boolean): TopLevelSpec {
   const x = { type: 'quantitative' as const, title: 'plastic strain [–]', scale: { zero: true, nice: true } };
   const y = { type: 'quantitative' as const, title: 'true stress [MPa]', scale: { zero: false, nice: true } };
   const color = {
     scale: { domain: [...SERIES], range: [PALETTE.sample, PALETTE.median, PALETTE.characteristic] },
     legend: { title: null, symbolType: 'stroke' },
   };
-  const validTo = curve.valid_to_plastic_strain;
-  const limit = validTo !== null && Number.isFinite(validTo) ? [{ x: validTo, text: `validity limit ${formatFixed(validTo, 3)}` }] : [];
-
   return {
-    width: options.width ?? 620,
-    height: options.height ?? 300,
+    width,
+    height,
+    params: [{ name: 'title_text', value: '' }, { name: 'subtitle_text', value: '' }],
     title: {
-      text: options.title ?? 'True stress–plastic strain',
-      subtitle: `n = ${curve.n} tests · ${samples.length} test curves shown`,
+      text: { expr: 'title_text' },
+      subtitle: signalText('subtitle_text'),
       subtitleColor: PALETTE.muted,
       subtitleFontSize: 10,
     },
     layer: [
       {
-        data: { values: sampleValues },
+        data: { name: 'samples' },
         mark: { type: 'line', strokeWidth: 0.8, opacity: 0.45, clip: true, invalid: 'break-paths-show-domains' },
         encoding: {
           x: { ...x, field: 'x' },
@@ -90,7 +101,7 @@ export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleC
         },
       },
       {
-        data: { values: main },
+        data: { name: 'main' },
         mark: { type: 'line', strokeWidth: 2.4, clip: true },
         encoding: {
           x: { ...x, field: 'x' },
@@ -101,12 +112,12 @@ export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleC
             field: 'part',
             type: 'nominal',
             scale: { domain: [...PARTS], range: [[1, 0], [6, 4]] },
-            legend: hasExtrapolation ? { title: null, symbolType: 'stroke' } : null,
+            legend: dashLegend ? { title: null, symbolType: 'stroke' } : null,
           },
         },
       },
-      ...limit.map((l) => ({
-        data: { values: [l] },
+      {
+        data: { name: 'limit' },
         layer: [
           {
             mark: { type: 'rule' as const, color: PALETTE.spec, strokeDash: [2, 3], strokeWidth: 1.2 },
@@ -117,7 +128,7 @@ export function curvesSpec(curve: CharacteristicCurve, samples: readonly SampleC
             encoding: { x: { ...x, field: 'x' }, y: { value: 0 }, text: { field: 'text' } },
           },
         ],
-      })),
+      },
     ],
   } satisfies TopLevelSpec;
 }
@@ -128,5 +139,14 @@ export async function renderCurvesChart(
   options: ChartOptions = {},
 ): Promise<string> {
   const label = `True stress [MPa] against plastic strain for ${groupLabel(curve.group)}: test curves, median and characteristic curve`;
-  return renderSpecToSvg(curvesSpec(curve, samples, options), { idPrefix: options.idPrefix, label });
+  const input = curvesInput(curve, samples, options);
+  const width = options.width ?? 620;
+  const height = options.height ?? 300;
+  const dashLegend = (input.data.main as MainPoint[]).some((p) => p.part === 'extrapolated');
+  return renderTemplateToSvg(
+    `curves:${width}x${height}:${dashLegend}`,
+    () => curvesTemplate(width, height, dashLegend),
+    input,
+    { idPrefix: options.idPrefix, label },
+  );
 }

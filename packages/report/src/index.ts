@@ -2,9 +2,9 @@
 export type * from './types.ts';
 export { DESIGN_VALUE_CAUTION } from './caution.ts';
 export { renderReport } from './render-report.ts';
-export { renderCurvesChart, curvesSpec } from './curves-chart.ts';
+export { renderCurvesChart, curvesTemplate, curvesInput } from './curves-chart.ts';
 export { renderHistogram, histogramTemplate, histogramInput, headlineCharacteristic, type ChartOptions } from './histogram-chart.ts';
-export { renderControlChart, controlChartSpec, type ControlChartContext } from './control-chart.ts';
+export { renderControlChart, controlChartTemplate, controlChartInput, type ControlChartContext } from './control-chart.ts';
 export { renderSpecToSvg, renderTemplateToSvg, signalText, type TemplateInput } from './render-svg.ts';
 export { escapeHtml } from './html-escape.ts';
 export { propertyLabel, propertyAxisTitle, type PropertyLabel } from './property-labels.ts';

@@ -42,5 +42,16 @@ export function jsonText(value: JsonValue): string {
 export function jsonDefinitionList(object: Readonly<Record<string, JsonValue>>, skip: readonly string[] = []): string {
   const entries = Object.entries(object).filter(([k]) => !skip.includes(k));
   if (entries.length === 0) return '<p class="empty">–</p>';
-  return `<dl class="kv">${entries.map(([k, v]) => `<dt>${escapeHtml(k)}</dt><dd>${escapeHtml(jsonText(v))}</dd>`).join('')}</dl>`;
+  const dd = (v: JsonValue): string => {
+    if (!isObject(v)) return escapeHtml(jsonText(v));
+    // a flat map of numbers and arrays gets one line per key; a map of labels stays on one line
+    const values = isObject(v) ? Object.values(v) : [];
+    if (values.length > 1 && values.every((x) => !isObject(x)) && !values.every((x) => typeof x === 'string')) {
+      return Object.entries(v as Record<string, JsonValue>)
+        .map(([k, x]) => `<span class="kv-line">${escapeHtml(`${k} ${jsonText(x)}`)}</span>`)
+        .join('');
+    }
+    return escapeHtml(jsonText(v));
+  };
+  return `<dl class="kv">${entries.map(([k, v]) => `<dt>${escapeHtml(k)}</dt><dd>${dd(v)}</dd>`).join('')}</dl>`;
 }

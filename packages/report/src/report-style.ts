@@ -54,6 +54,7 @@ ul.warnings { margin: 6px 0 0; padding-left: 18px; color: var(--warn); font-size
 .truncated { color: var(--warn); font-size: 12.5px; margin: 6px 0 0; }
 dl.kv { display: grid; grid-template-columns: max-content 1fr; gap: 2px 12px; margin: 0; font-size: 12.5px; }
 dl.kv dt { color: var(--muted); }
+dl.kv .kv-line { display: block; }
 dl.kv dd { margin: 0; font-variant-numeric: tabular-nums; overflow-wrap: anywhere; }
 footer { max-width: 1280px; margin: 0 auto; padding: 0 28px 32px; color: var(--muted); font-size: 12px; }
 @media (max-width: 900px) { .curve-row, .two-col { grid-template-columns: 1fr; } nav.toc ol { columns: 1; } }
