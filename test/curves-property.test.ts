@@ -85,3 +85,49 @@ describe('random valid curves', () => {
     );
   });
 });
+
+describe('yield-point detection on random curves', () => {
+  const mild = fc.record({
+    points: fc.integer({ min: 800, max: 3000 }),
+    noiseMpa: fc.double({ min: 0, max: 1, noNaN: true }),
+    strainNoise: fc.double({ min: 0, max: 2e-6, noNaN: true }),
+    toeStrain: fc.double({ min: 0, max: 0.0008, noNaN: true }),
+    seed: fc.integer({ min: 1, max: 1_000_000 }),
+  });
+
+  it('curves with an upper yield point (≥ 3 %) and a plateau (≥ 1 %) are classed plateau, ReH and ReL within 1.5 %', () => {
+    fc.assert(
+      fc.property(mild, fc.double({ min: 220, max: 480, noNaN: true }), fc.double({ min: 0.03, max: 0.15, noNaN: true }), fc.double({ min: 0.01, max: 0.05, noNaN: true }), fc.double({ min: 0, max: 3, noNaN: true }),
+        (c, rel, up, ype, serr) => {
+          const syn = plateauCurve({ ...c, relMpa: rel, rehMpa: rel * (1 + up), ypeStrain: ype, undershootMpa: 0.3 * rel * up, serrationMpa: serr });
+          const r = reduceCurve(syn.input, DEFAULT_REDUCE_SETTINGS);
+          expect(r.ok).toBe(true);
+          if (!r.ok) return;
+          const p = r.result.properties;
+          expect(p.shape_class).toBe('plateau');
+          expect(Math.abs(p.reh_mpa! - rel * (1 + up)) / (rel * (1 + up))).toBeLessThan(0.015);
+          expect(Math.abs(p.rel_mpa! - rel) / rel).toBeLessThan(0.015);
+          expect(Math.abs(p.ype_pct! - 100 * ype)).toBeLessThan(0.5);
+          expect(p.flags).not.toContain('slipping');
+        }),
+      { numRuns: 150, seed: 11 },
+    );
+  });
+
+  it('continuously hardening curves (Hollomon n 0.08–0.3, Ramberg–Osgood m 8–30) are never classed plateau', () => {
+    fc.assert(
+      fc.property(mild, fc.boolean(), fc.double({ min: 0, max: 1, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }),
+        (c, ro, a, b) => {
+          const syn = ro
+            ? rambergOsgoodCurve({ ...c, sigma0Mpa: 250 + 600 * a, m: 8 + 22 * b, uniformStrain: 0.05 + 0.2 * a })
+            : hollomonCurve({ ...c, kMpa: 600 + 700 * a, n: 0.08 + 0.22 * b });
+          const r = reduceCurve(syn.input, DEFAULT_REDUCE_SETTINGS);
+          expect(r.ok).toBe(true);
+          if (!r.ok) return;
+          expect(r.result.properties.shape_class).not.toBe('plateau');
+          expect(r.result.properties.reh_mpa).toBeNull();
+        }),
+      { numRuns: 200, seed: 12 },
+    );
+  });
+});

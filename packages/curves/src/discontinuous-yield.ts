@@ -13,14 +13,16 @@
  * continuously (concavely) hardening curve cannot do. The search stops at
  * maximum force, so a curve whose upper yield is its maximum force counts as continuous.
  *
- * Transient: the descent from ReH to the first minimum and the recovery up to the plateau's
- * median level (the first minimum is ignored unless it is the only one, as ISO 6892-1 says of
- * the initial transient; the median-level rule is ours). ReL is the lowest value of a 5-point
- * moving average (raw values for noise below 0.1 % of ReH) between the transient and the end of
- * the plateau. The plateau ends at the last point not above median + 2·(median − lower quartile)
- * of the plateau stress (at least the tolerance), found by three rounds of trimming the rising
- * end; uniform work hardening starts where a line through the first rising points meets the
- * plateau's median level (a tangent construction; ours).
+ * Plateau band (ours): from the lower quantiles of the stress after the first minimum, which the
+ * rising end does not reach — base = 25 % quantile, width = 3.75 × (25 % − 5 % quantile), at
+ * least the tolerance — with three rounds of trimming the rising end. The plateau ends at the
+ * last point inside the band; uniform work hardening starts where a line through the first
+ * rising points meets the band's middle level (a tangent construction).
+ *
+ * Transient: the descent from ReH to the first minimum and the recovery up to the band base (the
+ * first minimum is ignored unless it is the only one, as ISO 6892-1 says of the initial
+ * transient; the recovery rule is ours). ReL is the lowest value of a 5-point moving average
+ * (raw values for noise below 0.1 % of ReH) between the transient and the end of the plateau.
  *
  * With noise above 0.01 % of Rm the search runs on a 7-point moving average (thresholds scaled
  * to its noise); ReH is then the highest recorded stress within 7 points of the found peak.
@@ -46,12 +48,11 @@ const SPAN = 0.003;
 /** least length of a plateau without an upper yield point */
 const FLAT_SPAN = 0.005;
 
-/** sorts in place; returns the median and the lower quartile */
-function medianAndQuartile(values: Float64Array): [number, number] {
+/** sorts in place; returns the 5 % and 25 % quantiles (lower order statistics) */
+function lowerQuantiles(values: Float64Array): [number, number] {
   values.sort();
-  const m = values.length >> 1;
-  const med = values.length % 2 ? values[m] : (values[m - 1] + values[m]) / 2;
-  return [med, values[Math.floor((values.length - 1) / 4)]];
+  const at = (q: number) => values[Math.floor((values.length - 1) * q)];
+  return [at(0.05), at(0.25)];
 }
 
 /** mean of the five points around j, clipped to [lo, hi] */
@@ -147,30 +148,35 @@ function describePlateau(strain: ArrayLike<number>, stressMpa: ArrayLike<number>
     if (stressMpa[j] < stressMpa[t]) t = j;
     else if (stressMpa[j] > stressMpa[t] + h) break;
   }
-  // plateau level: median of (t, end), trimming the rising end three times
+  // plateau band from the lower quantiles of (t, end), which the rising end does not reach:
+  // base = 25 % quantile, band width = 3.75 × (25 % − 5 % quantile) (the full width of a uniform
+  // serration, about ±3σ of normal noise), at least the tolerance; three rounds of trimming the
+  // rising end at one band above the band
   let end = q;
-  let level = stressMpa[t];
+  let base = stressMpa[t];
   let spread = tol;
   for (let round = 0; round < 3 && end - t > 2; round++) {
     const vals = Float64Array.from({ length: end - t - 1 }, (_, k) => stressMpa[t + 1 + k]);
-    const [med, q25] = medianAndQuartile(vals);
-    level = med;
-    spread = Math.max(tol, 2 * (med - q25));
+    const [q05, q25] = lowerQuantiles(vals);
+    base = q25;
+    spread = Math.max(tol, 3.75 * (q25 - q05));
     let e = t + 1;
-    while (e < end && stressMpa[e] <= level + 2 * spread) e++;
+    while (e < end && stressMpa[e] <= base + 2 * spread) e++;
     if (e === end) break;
     end = e;
   }
+  const top = base + spread;
+  const level = base + spread / 3;
   let plateauEnd = t;
-  for (let j = end - 1; j > t; j--) if (stressMpa[j] <= level + spread) { plateauEnd = j; break; }
+  for (let j = end - 1; j > t; j--) if (stressMpa[j] <= top) { plateauEnd = j; break; }
   // start of work hardening: the line through the first rising points (above the plateau band, up
   // to 4 bands higher) meets the plateau level; without such points, the last plateau point
   let endStrain = strain[plateauEnd];
   {
     let k = plateauEnd + 1;
-    while (k < imax && stressMpa[k] <= level + spread) k++;
+    while (k < imax && stressMpa[k] <= top) k++;
     let m = 0, sx = 0, sy = 0, sxx = 0, sxy = 0;
-    for (let j = k; j <= imax && stressMpa[j] <= level + 5 * spread; j++) {
+    for (let j = k; j <= imax && stressMpa[j] <= top + 4 * spread; j++) {
       const x = strain[j], y = stressMpa[j];
       m++; sx += x; sy += y; sxx += x * x; sxy += x * y;
     }
@@ -183,7 +189,7 @@ function describePlateau(strain: ArrayLike<number>, stressMpa: ArrayLike<number>
   }
   // end of the transient: recovery up to the plateau level
   let trEnd = t + 1;
-  while (trEnd <= plateauEnd && stressMpa[trEnd] < level) trEnd++;
+  while (trEnd <= plateauEnd && stressMpa[trEnd] < base) trEnd++;
   const smooth = noiseMpa > 1e-3 * sp;
   const at = (j: number): number => {
     if (!smooth) return stressMpa[j];
