@@ -11,3 +11,4 @@ export * from './monitor/stage.ts';
 export * from './design-stage.ts';
 export * from './design/index.ts';
 export * from './reduce/task.ts';
+export * from './sample-stage.ts';
