@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   fitDensity,
+  headlineCharacteristic,
   histogramBins,
   histogramInput,
   renderControlChart,
@@ -24,6 +25,7 @@ describe('fitted densities', () => {
     // Reference: SciPy 1.10 scipy.stats.norm / lognorm(s=sigma, scale=exp(mu)) / weibull_min(c=shape, scale)
     const fits: DistributionFit[] = [
       { model: 'normal', params: { mean: 392, sd: 14 }, ad: null, p: null },
+      { model: 'normal', params: { mu: 405, sigma: 21 }, ad: null, p: null },
       { model: 'lognormal', params: { mu: Math.log(392), sigma: 0.04 }, ad: null, p: null },
       { model: 'weibull', params: { shape: 28, scale: 400 }, ad: null, p: null },
       { model: 'lognormal', params: { mu: 1.1, sigma: 0.6 }, ad: null, p: null },
@@ -36,7 +38,7 @@ import math
 out = []
 for f in data['fits']:
     p = f['params']
-    if f['model'] == 'normal': d = stats.norm(loc=p['mean'], scale=p['sd'])
+    if f['model'] == 'normal': d = stats.norm(loc=p.get('mean', p.get('mu')), scale=p.get('sd', p.get('sigma')))
     elif f['model'] == 'lognormal': d = stats.lognorm(s=p['sigma'], scale=math.exp(p['mu']))
     else: d = stats.weibull_min(c=p['shape'], scale=p['scale'])
     out.append([float(d.pdf(x)) for x in data['xs']])
@@ -142,6 +144,16 @@ describe('histogram chart', () => {
     const bars = histogramBins(values).bins.filter((b) => b.count > 0).length;
     expect((svg.match(/class="mark-rect[^"]*"/g) ?? []).length).toBe(1);
     expect(svg.match(/<g class="mark-rect[\s\S]*?<\/g>/)![0].match(/<path /g)!.length).toBe(bars);
+  });
+
+  it('marks the stats stage headline when no method is named, else the named one', () => {
+    const p = property(values, 392, 14);
+    const headline = { method: 'tolerance_lognormal', coverage: 0.95, confidence: 0.75, value: 366.1, note: null };
+    const unnamed: ReportProperty = { ...p, headline_method: undefined, stats: { ...p.stats, headline } };
+    expect(headlineCharacteristic(unnamed)).toEqual(headline);
+    expect(headlineCharacteristic({ ...unnamed, headline_method: 'tolerance_normal' })!.value).toBe(363.2);
+    // neither: the first method with a value (the first entry has none)
+    expect(headlineCharacteristic({ ...p, headline_method: undefined })!.method).toBe('tolerance_normal');
   });
 
   it('says so when there is nothing to draw', async () => {

@@ -96,21 +96,24 @@ describe('report structure', async () => {
     rp.warnings = ['Anderson–Darling rejects <all> fits'];
     rp.compliance = { lower: 355, upper: null, n_below: 2, n_above: 0, fraction_outside: 0.05, tail_below: 0.01, tail_above: null, cpk: 1.9087 };
     const page = await renderReport(one);
-    const row = page.match(/<tr><td><span class="prop">Rp0\.2<\/span>[\s\S]*?<\/tr>/)![0];
+    // one row in the statistics table, one in the characteristic-value table
+    const [row, charRow] = [...page.matchAll(/<tr><td><span class="prop">Rp0\.2<\/span>[\s\S]*?<\/tr>/g)].map((m) => m[0]);
     const cells = [...row.matchAll(/<td[^>]*>([\s\S]*?)<\/td>/g)].map((m) => m[1]);
-    expect(cells.slice(1, 9)).toEqual(['40', '412.3', '10.0', '2.4 %', '−1.3', cells[6], '–', cells[8]]);
+    // n, mean, sd, CoV, min, p05, median (missing)
+    expect(cells.slice(1, 8)).toEqual(['40', '412.3', '10.0', '2.4 %', '−1.3', cells[6], '–']);
+    expect(cells[11 - 1]).toBe('normal (0.54)');
     expect(row).toContain('<td class="num">355.0 / –</td>');
     expect(row).toContain('<td class="num">2 / 0</td>');
     expect(row).toContain('<td class="num">5.0 %</td>');
     expect(row).toContain('<td class="num">1.91</td>');
-    // the characteristic value of the headline method, one decimal for MPa
-    expect(row).toContain('<td class="num char">394.3</td>');
+    // the characteristic value of the headline method, one decimal for MPa, marked
+    expect(charRow).toContain('<td class="num char headline">394.3</td>');
     // −0.04 to one decimal reads 0.0, not −0.0
-    expect(row).toContain('<td class="num char">0.0</td>');
+    expect(charRow).toContain('<td class="num char">0.0</td>');
     // stats warnings listed under the table, escaped
     expect(page).toContain('<ul class="warnings"><li><span class="prop">Rp0.2</span>: Anderson–Darling rejects &lt;all&gt; fits</li></ul>');
     // method columns carry coverage and confidence in the header
-    expect(page).toContain('tolerance normal<span class="th-note">char. p 0.95, γ 0.75</span>');
+    expect(page).toContain('tolerance normal<span class="th-note">p 0.95, γ 0.75</span>');
   });
 
   it('cuts long data-quality lists with a count and a pointer to the exports', async () => {

@@ -1,6 +1,7 @@
 /**
  * Probability density of a fitted distribution, in the parameterisation of the stats stage:
- * normal `{ mean, sd }`, lognormal `{ mu, sigma }` of ln x, weibull `{ shape, scale }`.
+ * normal `{ mu, sigma }` (or `{ mean, sd }`), lognormal `{ mu, sigma }` of ln x, weibull
+ * `{ shape, scale }`.
  * The densities come from @stdlib. Returns null for an unknown model or parameters that are
  * missing, not finite or not positive where they must be.
  */
@@ -21,8 +22,8 @@ function param(fit: DistributionFit, name: string, positive: boolean): number | 
 export function fitDensity(fit: DistributionFit): Density | null {
   switch (fit.model) {
     case 'normal': {
-      const mean = param(fit, 'mean', false);
-      const sd = param(fit, 'sd', true);
+      const mean = param(fit, 'mu', false) ?? param(fit, 'mean', false);
+      const sd = param(fit, 'sigma', true) ?? param(fit, 'sd', true);
       return mean === null || sd === null ? null : (x) => normalPdf(x, mean, sd);
     }
     case 'lognormal': {

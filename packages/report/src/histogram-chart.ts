@@ -28,13 +28,18 @@ export interface ChartOptions {
 const FIT_POINTS = 120;
 const KINDS = { domain: ['characteristic', 'spec'], range: [PALETTE.characteristic, PALETTE.spec] };
 
-/** The characteristic value marked in the histogram: the named method, else the first with a value. */
+/**
+ * The characteristic value marked in the histogram: the method named by `headline_method`, else
+ * the stats stage's headline, else the first method with a value.
+ */
 export function headlineCharacteristic(property: ReportProperty): CharacteristicValue | null {
-  const withValue = property.stats.characteristic.filter((c) => c.value !== null && Number.isFinite(c.value));
+  const usable = (c: CharacteristicValue | null | undefined): c is CharacteristicValue => !!c && c.value !== null && Number.isFinite(c.value);
+  const withValue = property.stats.characteristic.filter(usable);
   if (property.headline_method !== undefined) {
     const named = withValue.find((c) => c.method === property.headline_method);
     if (named) return named;
   }
+  if (usable(property.stats.headline)) return property.stats.headline;
   return withValue[0] ?? null;
 }
 

@@ -45,7 +45,7 @@ export function jsonDefinitionList(object: Readonly<Record<string, JsonValue>>, 
   const dd = (v: JsonValue): string => {
     if (!isObject(v)) return escapeHtml(jsonText(v));
     // a flat map of numbers and arrays gets one line per key; a map of labels stays on one line
-    const values = isObject(v) ? Object.values(v) : [];
+    const values = Object.values(v);
     if (values.length > 1 && values.every((x) => !isObject(x)) && !values.every((x) => typeof x === 'string')) {
       return Object.entries(v as Record<string, JsonValue>)
         .map(([k, x]) => `<span class="kv-line">${escapeHtml(`${k} ${jsonText(x)}`)}</span>`)

@@ -1,10 +1,11 @@
 /**
- * The property table of one group: population statistics, the characteristic values of every
- * method the stats stage reported (one column per method), and compliance with the
- * specification limits. Values in the property's unit, CoV and fractions in percent; the
- * stats stage's warnings listed below the table.
+ * The property tables of one group: population statistics with compliance against the
+ * specification limits, and the characteristic values of every method the stats stage
+ * reported (one column per method, the headline value marked). Values in the property's unit,
+ * CoV and fractions in percent; the stats stage's warnings listed below.
  */
 import { formatFixed, formatInteger, formatPercent, formatSignificant, MISSING } from './format-number.ts';
+import { headlineCharacteristic } from './histogram-chart.ts';
 import { escapeHtml } from './html-escape.ts';
 import { htmlTable, type CellInput, type Column } from './html-table.ts';
 import { propertyLabel } from './property-labels.ts';
@@ -17,13 +18,12 @@ function methodNote(c: CharacteristicValue): string {
   return parts.join(', ');
 }
 
-export function propertyTable(properties: readonly ReportProperty[]): string {
-  const methods: { method: string; note: string }[] = [];
-  for (const p of properties) {
-    for (const c of p.stats.characteristic) {
-      if (!methods.some((m) => m.method === c.method)) methods.push({ method: c.method, note: methodNote(c) });
-    }
-  }
+function propertyCell(p: ReportProperty): CellInput {
+  const label = propertyLabel(p.stats.property);
+  return { html: `<span class="prop">${escapeHtml(label.name)}</span> <span class="unit">[${escapeHtml(label.unit)}]</span>` };
+}
+
+export function statisticsTable(properties: readonly ReportProperty[]): string {
   const columns: Column[] = [
     { header: 'property', note: 'unit' },
     { header: 'n', numeric: true },
@@ -33,9 +33,9 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
     { header: 'min', numeric: true },
     { header: 'p05', numeric: true },
     { header: 'median', numeric: true },
+    { header: 'p95', numeric: true },
     { header: 'max', numeric: true },
-    { header: 'best fit' },
-    ...methods.map((m) => ({ header: m.method.replace(/_/g, ' '), note: m.note ? `char. ${m.note}` : 'char.', numeric: true })),
+    { header: 'best fit', note: 'AD p' },
     { header: 'spec', note: 'min / max', numeric: true },
     { header: 'n outside', note: 'below / above', numeric: true },
     { header: 'outside', note: 'fraction', numeric: true },
@@ -43,18 +43,12 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
   ];
   const rows = properties.map((p): CellInput[] => {
     const s = p.stats;
-    const label = propertyLabel(s.property);
-    const d = label.decimals;
+    const d = propertyLabel(s.property).decimals;
     const v = (x: number | null) => formatFixed(x, d);
     const c = s.compliance;
-    const byMethod = methods.map((m): CellInput => {
-      const found = s.characteristic.find((x) => x.method === m.method);
-      if (!found) return MISSING;
-      const own = methodNote(found);
-      return { text: own && own !== m.note ? `${v(found.value)} (${own})` : v(found.value), numeric: true, className: 'char' };
-    });
+    const best = s.fits.find((f) => f.model === s.best_fit);
     return [
-      { html: `<span class="prop">${label.name}</span> <span class="unit">[${label.unit}]</span>` },
+      propertyCell(p),
       formatInteger(s.n),
       v(s.mean),
       v(s.sd),
@@ -62,19 +56,58 @@ export function propertyTable(properties: readonly ReportProperty[]): string {
       v(s.min),
       v(s.percentiles.p05),
       v(s.median),
+      v(s.percentiles.p95),
       v(s.max),
-      s.best_fit ?? MISSING,
-      ...byMethod,
+      s.best_fit === null ? MISSING : `${s.best_fit}${best ? ` (${formatSignificant(best.p, 2)})` : ''}`,
       c ? `${v(c.lower)} / ${v(c.upper)}` : MISSING,
       c ? `${formatInteger(c.n_below)} / ${formatInteger(c.n_above)}` : MISSING,
       c ? formatPercent(c.fraction_outside, 1) : MISSING,
       c ? formatSignificant(c.cpk, 3) : MISSING,
     ];
   });
-  const table = htmlTable(columns, rows, { className: 'data props', emptyText: 'No property statistics for this group.' });
-  // warnings of the stats stage under the table, one line per property that has any
+  return htmlTable(columns, rows, { className: 'data props', emptyText: 'No property statistics for this group.' });
+}
+
+export function characteristicTable(properties: readonly ReportProperty[]): string {
+  const methods: { method: string; note: string }[] = [];
+  for (const p of properties) {
+    for (const c of p.stats.characteristic) {
+      if (!methods.some((m) => m.method === c.method)) methods.push({ method: c.method, note: methodNote(c) });
+    }
+  }
+  if (methods.length === 0) return '<p class="empty">No characteristic values for this group.</p>';
+  const columns: Column[] = [
+    { header: 'property', note: 'unit' },
+    { header: 'n', numeric: true },
+    ...methods.map((m) => ({ header: m.method.replace(/[_-]/g, ' '), note: m.note || '\u00a0', numeric: true })),
+  ];
+  const rows = properties.map((p): CellInput[] => {
+    const s = p.stats;
+    const d = propertyLabel(s.property).decimals;
+    const headline = headlineCharacteristic(p);
+    return [
+      propertyCell(p),
+      formatInteger(s.n),
+      ...methods.map((m): CellInput => {
+        const found = s.characteristic.find((x) => x.method === m.method);
+        if (!found) return MISSING;
+        const own = methodNote(found);
+        const text = own && own !== m.note ? `${formatFixed(found.value, d)} (${own})` : formatFixed(found.value, d);
+        const isHeadline = headline !== null && found.method === headline.method;
+        return { text, numeric: true, className: isHeadline ? 'char headline' : 'char' };
+      }),
+    ];
+  });
+  return htmlTable(columns, rows, { className: 'data chars', emptyText: 'No characteristic values for this group.' });
+}
+
+/** Both tables and the warnings of the stats stage. */
+export function propertyTable(properties: readonly ReportProperty[]): string {
   const warnings = properties
     .filter((p) => p.stats.warnings.length > 0)
     .map((p) => `<li><span class="prop">${escapeHtml(propertyLabel(p.stats.property).name)}</span>: ${escapeHtml(p.stats.warnings.join('; '))}</li>`);
-  return warnings.length > 0 ? `${table}\n<ul class="warnings">${warnings.join('')}</ul>` : table;
+  return `${statisticsTable(properties)}
+<h3>Characteristic values</h3>
+<p class="lead">Lower-fractile estimates by method (p coverage, γ confidence); the value marked in each histogram is boxed.</p>
+${characteristicTable(properties)}${warnings.length > 0 ? `\n<ul class="warnings">${warnings.join('')}</ul>` : ''}`;
 }

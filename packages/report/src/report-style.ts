@@ -46,6 +46,7 @@ thead th { background: var(--soft); font-weight: 600; border-bottom: 1px solid v
 tbody tr:nth-child(even) td { background: #fafbfc; }
 td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 td.char { font-weight: 600; color: ${PALETTE.characteristic}; }
+td.char.headline { box-shadow: inset 0 0 0 1.5px ${PALETTE.characteristic}; border-radius: 3px; }
 td.warn { color: var(--warn); }
 .unit { color: var(--muted); }
 ul.warnings { margin: 6px 0 0; padding-left: 18px; color: var(--warn); font-size: 12.5px; }

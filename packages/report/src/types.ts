@@ -88,8 +88,8 @@ export interface SampleCurve {
 // stats stage (contract of `fractile stats --format json`)
 
 /**
- * A fitted distribution. Parameters by model: normal `{ mean, sd }`; lognormal `{ mu, sigma }`
- * of ln x; weibull `{ shape, scale }`. `ad` is the Anderson–Darling statistic, `p` its p-value.
+ * A fitted distribution. Parameters by model: normal `{ mu, sigma }` (`{ mean, sd }` also read);
+ * lognormal `{ mu, sigma }` of ln x; weibull `{ shape, scale }`. `ad` is the Anderson–Darling statistic, `p` its p-value.
  */
 export interface DistributionFit {
   model: string;
@@ -109,8 +109,9 @@ export interface CharacteristicValue {
 export interface Compliance {
   lower: number | null;
   upper: number | null;
-  n_below: number;
-  n_above: number;
+  /** Null where the limit on that side is not set. */
+  n_below: number | null;
+  n_above: number | null;
   fraction_outside: number;
   tail_below: number | null;
   tail_above: number | null;
@@ -131,7 +132,11 @@ export interface PropertyStats {
   percentiles: { p05: number | null; p50: number | null; p95: number | null };
   fits: readonly DistributionFit[];
   best_fit: string | null;
+  /** Why the best fit was chosen, as the stats stage words it. */
+  best_fit_rule?: string;
   characteristic: readonly CharacteristicValue[];
+  /** The characteristic value the stats stage puts forward (matching the best fit). */
+  headline?: CharacteristicValue | null;
   compliance: Compliance | null;
   warnings: readonly string[];
 }
@@ -140,7 +145,10 @@ export interface PropertyStats {
 export interface ReportProperty {
   stats: PropertyStats;
   values: readonly number[];
-  /** Method of the characteristic value marked in the histogram; default the first with a value. */
+  /**
+   * Method of the characteristic value marked in the histogram and listed first; default the
+   * stats stage's `headline`, else the first method with a value.
+   */
   headline_method?: string;
 }
 
