@@ -61,6 +61,23 @@ describe('modulus of elasticity', () => {
     expect(r.result.details.strain_source).toBe('crosshead');
   });
 
+  it('a toe reaching into the 10 % end of the window: the window is narrowed and E stays within 1 %', () => {
+    for (let seed = 1; seed <= 5; seed++) {
+      // toe up to 50 MPa on a 300 MPa ReH: the default window starts at 30 MPa, inside the toe
+      const syn = plateauCurve({ eMpa: 205_000, rehMpa: 300, relMpa: 280, ypeStrain: 0.015, undershootMpa: 5, noiseMpa: 0.3, strainNoise: 5e-7, toeStrain: 0.0008, toeStressMpa: 50, seed });
+      const r = reduceCurve(syn.input, S);
+      expect(r.ok).toBe(true);
+      if (!r.ok) return;
+      const m = r.result.details.modulus as { window_narrowed: boolean; window_fraction: [number, number] };
+      expect(m.window_narrowed).toBe(true);
+      expect(m.window_fraction[0]).toBeGreaterThan(0.1);
+      expect(Math.abs(r.result.properties.modulus_gpa! - 205) / 205, `seed ${seed}`).toBeLessThan(0.01);
+    }
+    // a straight elastic part keeps the window of the settings
+    const clean = reduceCurve(plateauCurve({ eMpa: 205_000, rehMpa: 300, relMpa: 280, ypeStrain: 0.015, noiseMpa: 0.3, seed: 1 }).input, S);
+    expect(clean.ok && (clean.result.details.modulus as { window_narrowed: boolean }).window_narrowed).toBe(false);
+  });
+
   it('flags a poor fit when the elastic part is very noisy', () => {
     const syn = rambergOsgoodCurve({ eMpa: 205_000, sigma0Mpa: 380, m: 14, noiseMpa: 1, strainNoise: 4e-5, seed: 3 });
     const r = reduceCurve(syn.input, S);

@@ -9,7 +9,7 @@
  * law fits (optional).
  *
  * `details` keys (all JSON values): strain_source, points, dropped_points, noise_mpa,
- * modulus {r2, window_mpa, points, iterations}, toe_shift_strain, loops
+ * modulus {r2, window_mpa, window_fraction, window_narrowed, points, iterations}, toe_shift_strain, loops
  * [{unloading_modulus_gpa, at_strain}], discontinuous {kind, reh_strain, plateau_end_strain} |
  * null, rp_strain, max_force_strain, fracture_strain, at_pct, points_past_max_force,
  * n {window_pct, reduced, points, r2}, slips, extensometer_removed_at_strain, fits_points.
@@ -181,7 +181,7 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
     points: n,
     dropped_points: eng.curve.droppedPoints,
     noise_mpa: round(noise),
-    modulus: { r2: round(mod.r2, 8), window_mpa: [round(mod.windowMpa[0]), round(mod.windowMpa[1])], points: mod.points, iterations: mod.iterations },
+    modulus: { r2: round(mod.r2, 8), window_mpa: [round(mod.windowMpa[0]), round(mod.windowMpa[1])], window_fraction: mod.windowFractions, window_narrowed: mod.windowFractions[0] !== settings.modulusWindow[0] || mod.windowFractions[1] !== settings.modulusWindow[1], points: mod.points, iterations: mod.iterations },
     toe_shift_strain: round(mod.strainOrigin),
     loops: env.loops.map((l) => ({ unloading_modulus_gpa: l.unloadingModulusMpa !== null ? round(l.unloadingModulusMpa / 1000) : null, at_strain: round(l.atStrain - mod.strainOrigin) })),
     discontinuous: dyValid ? { kind: dy.kind, reh_strain: round(e[dy.rehIndex]), plateau_end_strain: round(ypeEndStrain) } : null,
