@@ -8,13 +8,14 @@ import type { ReduceSettings } from './types.ts';
 /** 0, 0.001, …, 0.200 (exact decimal steps, 201 values). */
 export const DEFAULT_GRID: readonly number[] = Object.freeze(Array.from({ length: 201 }, (_, i) => i / 1000));
 
+/** Frozen (arrays included): copy with spread to change a setting. */
 export const DEFAULT_REDUCE_SETTINGS: ReduceSettings = Object.freeze({
   family: 'steel',
   yieldDefinition: 'rp0.2',
   rpOffsetPct: 0.2,
   rtTotalPct: 0.5,
-  modulusWindow: [0.1, 0.4],
-  nWindowPct: [10, 20],
+  modulusWindow: Object.freeze([0.1, 0.4]) as unknown as [number, number],
+  nWindowPct: Object.freeze([10, 20]) as unknown as [number, number],
   gridPlasticStrain: DEFAULT_GRID as number[],
   fitLaws: true,
 }) as ReduceSettings;

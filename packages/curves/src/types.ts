@@ -3,8 +3,6 @@
  * reduction settings, and the results. Percentages in `TestProperties` are percent; strains
  * elsewhere are mm/mm.
  */
-import type { FlagName } from './flags.ts';
-
 export type Family = 'steel' | 'aluminium' | 'other';
 export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
 export type ShapeClass = 'plateau' | 'continuous' | 'bilinear';
@@ -41,7 +39,12 @@ export interface ReduceSettings {
   fitLaws: boolean;
 }
 
-/** Per-test property keys of the contract (percentages are percent); null where a value does not apply. */
+/**
+ * Per-test property keys of the contract (percentages are percent); null where a value does not
+ * apply. `rp02_mpa` is Rp at settings.rpOffsetPct and `rt05_mpa` Rt at settings.rtTotalPct
+ * (0.2 % and 0.5 % by default); `yield_mpa` follows settings.yieldDefinition and is null (flag
+ * `yield_definition_not_applicable`) when that definition does not exist on the curve.
+ */
 export interface TestProperties {
   modulus_gpa: number | null;
   rp02_mpa: number | null;
@@ -59,7 +62,8 @@ export interface TestProperties {
   yield_mpa: number | null;
   yield_definition: YieldDefinition | null;
   shape_class: ShapeClass | null;
-  flags: FlagName[];
+  /** names from FLAGS (flags.ts) */
+  flags: string[];
 }
 
 export interface LawFit<P> {
