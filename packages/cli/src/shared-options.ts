@@ -1,12 +1,12 @@
 /**
- * Options several commands share: the grade catalog, grouping and the filters on date range,
+ * Options several commands share (heavy packages are loaded only when a command runs, so that
+ * `--help` stays quick): the grade catalog, grouping and the filters on date range,
  * grade, supplier, orientation and temperature.
  */
 import type { Command } from 'commander';
 import type { Kysely } from 'kysely';
 import type { Database, Store } from '@fractile/store';
-import { openStore } from '@fractile/store';
-import { currentCatalog, loadCatalog, NUMERIC_PROPERTIES, type Catalog, type PropertyFilter, type PropertyKey } from '@fractile/pipeline';
+import type { Catalog, PropertyFilter, PropertyKey } from '@fractile/pipeline';
 import { CliError, dbTarget, type GlobalOptions } from './context.ts';
 
 export function addFilterOptions(cmd: Command): Command {
@@ -47,11 +47,12 @@ export function readFilter(o: Record<string, unknown>): PropertyFilter {
   };
 }
 
-export function readProperties(o: Record<string, unknown>, dflt?: PropertyKey[]): PropertyKey[] | undefined {
+/** --property values checked against the known keys (NUMERIC_PROPERTIES of the pipeline). */
+export function readProperties(o: Record<string, unknown>, known: readonly string[], dflt?: PropertyKey[]): PropertyKey[] | undefined {
   const raw = o.property;
   const names = (Array.isArray(raw) ? raw : typeof raw === 'string' ? [raw] : []).flatMap((s: string) => s.split(',')).map((s) => s.trim()).filter(Boolean);
   if (names.length === 0) return dflt;
-  for (const n of names) if (!(NUMERIC_PROPERTIES as readonly string[]).includes(n)) throw new CliError(`unknown property "${n}" (known: ${NUMERIC_PROPERTIES.join(', ')})`);
+  for (const n of names) if (!known.includes(n)) throw new CliError(`unknown property "${n}" (known: ${known.join(', ')})`);
   return names as PropertyKey[];
 }
 
@@ -64,11 +65,13 @@ export function probability(s: unknown, name: string, dflt: number): number {
 
 /** --catalog FILE, else the catalog the latest reduce run used, else none. */
 export async function resolveCatalog(db: Kysely<Database>, file: unknown): Promise<Catalog | null> {
+  const { currentCatalog, loadCatalog } = await import('@fractile/pipeline');
   if (typeof file === 'string') return loadCatalog(file);
   return currentCatalog(db);
 }
 
 export async function withStore<T>(g: GlobalOptions, fn: (store: Store) => Promise<T>): Promise<T> {
+  const { openStore } = await import('@fractile/store');
   const store = await openStore(dbTarget(g));
   try {
     return await fn(store);

@@ -1,8 +1,7 @@
 /** `fractile curves`: median and characteristic true stress–plastic strain curves per group (contract JSON). */
 import type { Command } from 'commander';
-import { DESIGN_CAUTION, parseGroupBy, runCurves, type DesignOptions } from '@fractile/pipeline';
+import type { DesignOptions } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
-import { writeCurveFiles } from '../curve-files.ts';
 import { addFilterOptions, probability, readFilter, withStore } from '../shared-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
@@ -26,6 +25,8 @@ export const command: CommandModule = {
     )
       .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { DESIGN_CAUTION, parseGroupBy, runCurves } = await import('@fractile/pipeline');
+        const { writeCurveFiles } = await import('../curve-files.ts');
         const g = globals(cmd);
         const model = o.model as string;
         if (model !== 'normal' && model !== 'lognormal') throw new CliError('--model must be normal or lognormal');

@@ -6,13 +6,8 @@
 import { existsSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { Command } from 'commander';
-import { formatRejection, ingestManifests } from '@fractile/ingest';
-import { loadCatalog, parseGroupBy } from '@fractile/pipeline';
-import { openStore } from '@fractile/store';
-import { generateDemo } from '@fractile/seed-demo';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { progressBar } from '../progress.ts';
-import { runAll } from '../run-all.ts';
 import { CODE_VERSION } from '../version.ts';
 
 export const command: CommandModule = {
@@ -29,6 +24,11 @@ export const command: CommandModule = {
       .option('--workers <n>', 'worker threads for reduce (default: all cores)')
       .addHelpText('after', '\nThe scenario is invented: its fabricator, mills, grades and dates are not real. The demo database is\n<out>/db unless --db is given.')
       .action(async (o: { out: string; tests: string; seed: string; points: string; fresh?: boolean; workers?: string }, cmd: Command) => {
+        const { formatRejection, ingestManifests } = await import('@fractile/ingest');
+        const { loadCatalog, parseGroupBy } = await import('@fractile/pipeline');
+        const { openStore } = await import('@fractile/store');
+        const { generateDemo } = await import('@fractile/seed-demo');
+        const { runAll } = await import('../run-all.ts');
         const g = globals(cmd);
         const tests = Number(o.tests);
         const seed = Number(o.seed);

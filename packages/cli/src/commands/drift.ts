@@ -1,6 +1,5 @@
 /** `fractile drift`: control charts, change points and supplier comparison (contract JSON). */
 import type { Command } from 'commander';
-import { driftContract, parseGroupBy, runDrift, DEFAULT_DRIFT_PROPERTIES } from '@fractile/pipeline';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -20,7 +19,7 @@ export const command: CommandModule = {
         .command('drift')
         .description('supplier drift over time: individuals/moving-range, EWMA and CUSUM charts, change points, rolling capability, supplier comparison, alerts')
         .option('--by <fields>', 'series grouping (comma-separated)', 'supplier,grade')
-        .option('--property <keys...>', `properties (default: ${DEFAULT_DRIFT_PROPERTIES.join(', ')})`)
+        .option('--property <keys...>', 'properties (default: yield_mpa, rm_mpa)')
         .option('--baseline <spec>', 'baseline: N (first N tests) or FROM..TO dates (default: first 30 tests)')
         .option('--ewma-lambda <l>', 'EWMA weight λ (default 0.1)')
         .option('--ewma-l <L>', 'EWMA limit width L in SDs (default 2.814, ARL0 ≈ 500 with λ = 0.1)')
@@ -29,6 +28,7 @@ export const command: CommandModule = {
         .option('--catalog <file>', 'grade catalog for the spec minima (default: the catalog of the last reduce)')
         .option('--all-rules', 'every chart signal is an alert (default: only signals toward a specification limit of the property)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { driftContract, parseGroupBy, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
       let baseline: { firstN?: number; from?: string; to?: string } | undefined;
       if (typeof o.baseline === 'string') {
@@ -49,7 +49,7 @@ export const command: CommandModule = {
       };
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits' });
+        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits' });
         log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts, ${r.change_points.length} change points`);
         const flat = r.alerts.map((a) => ({ group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
         emit(g.format, driftContract(r), flat);

@@ -1,6 +1,5 @@
 /** `fractile properties`: the per-test property table (contract keys). */
 import type { Command } from 'commander';
-import { contractView, loadProperties, PROPERTY_ROW_KEYS } from '@fractile/pipeline';
 import { emit, globals, type CommandModule } from '../context.ts';
 import { addFilterOptions, readFilter, withStore } from '../shared-options.ts';
 
@@ -14,6 +13,7 @@ export const command: CommandModule = {
     )
       .option('--failed', 'also list tests whose reduction failed, with the reason')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { contractView, loadProperties, PROPERTY_ROW_KEYS } = await import('@fractile/pipeline');
         const g = globals(cmd);
         await withStore(g, async (store) => {
           const rows = await loadProperties(store.db, { ...readFilter(o), includeFailed: Boolean(o.failed) });

@@ -1,6 +1,5 @@
 /** `fractile reduce`: per-test properties, true curves and hardening fits from the raw records. */
 import type { Command } from 'commander';
-import { runReduce } from '@fractile/pipeline';
 import { emit, globals, log, type CommandModule } from '../context.ts';
 import { progressBar } from '../progress.ts';
 import { resolveCatalog, withStore } from '../shared-options.ts';
@@ -17,6 +16,7 @@ export const command: CommandModule = {
       .option('--no-fits', 'skip the Hollomon, Swift, Voce and Ramberg–Osgood fits')
       .addHelpText('after', '\nA second run with the same catalog computes nothing. A curve that cannot be reduced is stored as a failure with its reason (see `fractile properties --failed`).')
       .action(async (o: { catalog?: string; workers?: string; fits: boolean }, cmd: Command) => {
+        const { runReduce } = await import('@fractile/pipeline');
         const g = globals(cmd);
         await withStore(g, async (store) => {
           const catalog = await resolveCatalog(store.db, o.catalog);

@@ -1,8 +1,6 @@
 /** `fractile report`: the HTML report (and exports) of what is reduced, reusing stored stage results. */
 import type { Command } from 'commander';
-import { currentReduceHashes, parseGroupBy } from '@fractile/pipeline';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { runAll } from '../run-all.ts';
 import { resolveCatalog, withStore } from '../shared-options.ts';
 
 export const command: CommandModule = {
@@ -16,6 +14,8 @@ export const command: CommandModule = {
       .option('--drift-by <fields>', 'grouping of the drift series', 'supplier,grade')
       .option('--catalog <file>', 'grade catalog for the spec limits (default: the catalog of the last reduce)')
       .action(async (o: { out: string; by: string; driftBy: string; catalog?: string }, cmd: Command) => {
+        const { currentReduceHashes, parseGroupBy } = await import('@fractile/pipeline');
+        const { runAll } = await import('../run-all.ts');
         const g = globals(cmd);
         await withStore(g, async (store) => {
           if (!(await currentReduceHashes(store.db))) throw new CliError('nothing is reduced yet: run `fractile reduce` (or `fractile run`) first');

@@ -1,8 +1,6 @@
 /** `fractile run`: every stage, incrementally, then the report and exports. */
 import type { Command } from 'commander';
-import { parseGroupBy } from '@fractile/pipeline';
 import { emit, globals, log, type CommandModule } from '../context.ts';
-import { runAll } from '../run-all.ts';
 import { resolveCatalog, withStore } from '../shared-options.ts';
 
 export const command: CommandModule = {
@@ -17,6 +15,8 @@ export const command: CommandModule = {
       .option('--out <dir>', 'folder for report.html and the exports', 'fractile-out')
       .option('--workers <n>', 'worker threads for reduce (default: all cores)')
       .action(async (o: { catalog?: string; by: string; driftBy: string; out: string; workers?: string }, cmd: Command) => {
+        const { parseGroupBy } = await import('@fractile/pipeline');
+        const { runAll } = await import('../run-all.ts');
         const g = globals(cmd);
         await withStore(g, async (store) => {
           const catalog = await resolveCatalog(store.db, o.catalog);

@@ -1,6 +1,6 @@
 /** `fractile sample`: correlated random property sets per group for reliability analyses. */
 import type { Command } from 'commander';
-import { DESIGN_CAUTION, parseGroupBy, runAggregate, sampleGroups, type PropertyKey } from '@fractile/pipeline';
+import type { PropertyKey } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, toTable, type CommandModule } from '../context.ts';
 import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -20,12 +20,13 @@ export const command: CommandModule = {
         .option('--seed <n>', 'seed; the same seed gives the same sets', '1')
         .option('--catalog <file>', 'grade catalog (default: the catalog of the last reduce)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { DESIGN_CAUTION, parseGroupBy, runAggregate, sampleGroups, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
       const n = Number(o.n);
       const seed = Number(o.seed);
       if (!Number.isInteger(n) || n < 1) throw new CliError('--n must be a whole number ≥ 1');
       if (!Number.isInteger(seed)) throw new CliError('--seed must be a whole number');
-      const properties = readProperties(o, DEFAULT)!;
+      const properties = readProperties(o, NUMERIC_PROPERTIES, DEFAULT)!;
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
         const agg = await runAggregate(store, { by: parseGroupBy(o.by as string), filter: readFilter(o), catalog, codeVersion: CODE_VERSION });

@@ -1,6 +1,6 @@
 /** `fractile stats`: population statistics and characteristic values per group (contract JSON). */
 import type { Command } from 'commander';
-import { parseGroupBy, runAggregate, type Level } from '@fractile/pipeline';
+import type { Level } from '@fractile/pipeline';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, probability, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -20,6 +20,7 @@ export const command: CommandModule = {
         .option('--catalog <file>', 'grade catalog for the spec limits (default: the catalog of the last reduce)')
         .option('--correlations', 'print the Pearson and Spearman matrices per group instead'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { parseGroupBy, runAggregate, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
       const headline: Level = { coverage: probability(o.coverage, '--coverage', 0.95), confidence: probability(o.confidence, '--confidence', 0.75) };
       const others: Level[] = [{ coverage: 0.99, confidence: 0.95 }, { coverage: 0.9, confidence: 0.95 }, { coverage: 0.95, confidence: 0.75 }];
@@ -28,7 +29,7 @@ export const command: CommandModule = {
       if (priorV !== undefined && !(priorV > 0)) throw new CliError('--prior-v must be a positive number');
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runAggregate(store, { by: parseGroupBy(o.by as string), properties: readProperties(o), levels, priorV, filter: readFilter(o), catalog, codeVersion: CODE_VERSION });
+        const r = await runAggregate(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), levels, priorV, filter: readFilter(o), catalog, codeVersion: CODE_VERSION });
         log(`stats: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.stats.length} group × property rows`);
         if (o.correlations) {
           const flat = r.correlations.flatMap((c) => c.properties.flatMap((a, i) => c.properties.map((b, j) => ({ group: Object.values(c.group).join(' / '), a, b, pearson: c.pearson[i][j], spearman: c.spearman[i][j], n: c.n[i][j] }))));

@@ -1,0 +1,109 @@
+/**
+ * The `fractile` command as a user meets it: help on every command, JSON on stdout and nothing
+ * else there, the contract keys of DESIGN.md, and bad input named by file, line and column.
+ */
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { generateDemo, type DemoManifest } from '@fractile/seed-demo';
+
+const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
+const dir = mkdtempSync(join(tmpdir(), 'fractile-cli-'));
+const db = join(dir, 'db');
+let demo: DemoManifest;
+
+function fractile(...args: string[]): { status: number | null; stdout: string; stderr: string } {
+  const r = spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8', cwd: dir, env: { ...process.env, DATABASE_URL: '' }, maxBuffer: 1 << 27 });
+  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
+}
+
+const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'drift', 'report', 'run', 'demo'];
+
+beforeAll(() => {
+  demo = generateDemo({ outDir: join(dir, 'scenario'), tests: 60, seed: 11, pointsPerCurve: 500 });
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('fractile command line', () => {
+  it('lists every command in --help and has --help on each', () => {
+    const top = fractile('--help');
+    expect(top.status).toBe(0);
+    for (const c of COMMANDS) expect(top.stdout).toContain(c);
+    for (const c of COMMANDS) {
+      const h = fractile(c, '--help');
+      expect(h.status, c).toBe(0);
+      expect(h.stdout).toMatch(/Usage: fractile/);
+    }
+  });
+
+  it('ingests with --format json: one JSON document on stdout, rejections with file, line, column; exit 3', () => {
+    const good = demo.manifests.filter((m) => m.role === 'data' && !m.map).map((m) => join(dir, 'scenario', m.path));
+    const r = fractile('ingest', ...good, '--db', db, '--format', 'json');
+    expect(r.status).toBe(0);
+    const j = JSON.parse(r.stdout);
+    expect(Object.keys(j)).toEqual(expect.arrayContaining(['run', 'accepted', 'duplicates', 'rejected']));
+    expect(j.accepted).toBeGreaterThan(30);
+    const bad = join(dir, 'bad.csv');
+    writeFileSync(bad, 'test_id,grade,supplier,tested_on,shape,diameter[mm],gauge_length[mm],curve,yield[MPa],tensile[MPa]\nX1,G,S,2024-13-01,round,10,50,,400,500\n');
+    const b = fractile('ingest', bad, '--db', db, '--format', 'json');
+    expect(b.status).toBe(3);
+    const bj = JSON.parse(b.stdout);
+    expect(bj.rejected[0]).toMatchObject({ file: expect.stringContaining('bad.csv'), line: 2, column: 4, code: 'invalid_date' });
+    expect(b.stderr).toMatch(/bad\.csv:2:4: invalid_date/);
+  });
+
+  it('reduces and prints the per-test contract keys', () => {
+    const r = fractile('reduce', '--db', db, '--catalog', join(dir, 'scenario', demo.catalog), '--workers', '0');
+    expect(r.status, r.stderr).toBe(0);
+    const p = fractile('properties', '--db', db, '--format', 'json');
+    const rows = JSON.parse(p.stdout) as Record<string, unknown>[];
+    const keys = 'lab, test_id, grade, supplier, heat, tested_on, modulus_gpa, rp02_mpa, rt05_mpa, reh_mpa, rel_mpa, ype_pct, rm_mpa, ag_pct, agt_pct, a_pct, yt_ratio, n_value, k_mpa, yield_mpa, yield_definition, shape_class, flags'.split(', ');
+    expect(rows.length).toBeGreaterThan(30);
+    for (const k of keys) expect(rows[0]).toHaveProperty(k);
+    // a continuous curve has no upper yield point: null, not a number (DESIGN.md)
+    const continuous = rows.find((x) => x.shape_class === 'continuous');
+    expect(continuous?.reh_mpa).toBeNull();
+    const csv = fractile('properties', '--db', db, '--format', 'csv');
+    expect(csv.stdout.split('\n')[0]).toBe([...keys, 'given', 'failure'].join(','));
+  });
+
+  it('prints stats, curves and drift in their JSON contracts', () => {
+    const s = JSON.parse(fractile('stats', '--db', db, '--by', 'grade', '--property', 'yield_mpa', '--format', 'json').stdout) as Record<string, unknown>[];
+    expect(Object.keys(s[0])).toEqual(expect.arrayContaining(['group', 'property', 'n', 'mean', 'sd', 'cov', 'min', 'max', 'median', 'percentiles', 'fits', 'best_fit', 'characteristic', 'compliance', 'warnings']));
+    const c = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--format', 'json').stdout) as Record<string, unknown>[];
+    expect(Object.keys(c[0])).toEqual(expect.arrayContaining(['group', 'n', 'plastic_strain', 'median_mpa', 'characteristic_mpa', 'valid_to_plastic_strain', 'extrapolated_from', 'idealized', 'provenance']));
+    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout) as Record<string, unknown>;
+    expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
+    const csv = fractile('curves', '--db', db, '--format', 'csv');
+    expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
+  });
+
+  it('writes the report and the exports, each carrying the caution', () => {
+    const out = join(dir, 'out');
+    const r = fractile('report', '--db', db, '--out', out);
+    expect(r.status, r.stderr).toBe(0);
+    const html = readFileSync(join(out, 'report.html'), 'utf8');
+    expect(html).toMatch(/licensed engineer/);
+    for (const f of ['properties.csv', 'stats.json', 'drift.json', 'curves/curves.json']) {
+      expect(existsSync(join(out, f)), f).toBe(true);
+      expect(readFileSync(join(out, f), 'utf8')).toMatch(/licensed engineer/);
+    }
+  });
+
+  it('names the file, line and column of a bad grade catalog, and rejects bad options clearly', () => {
+    const cat = join(dir, 'bad-catalog.json');
+    writeFileSync(cat, '{\n  "grades": {\n    "G": { "family": "steel", }\n  }\n}\n');
+    const r = fractile('reduce', '--db', db, '--catalog', cat);
+    expect(r.status).not.toBe(0);
+    expect(r.stderr).toMatch(/bad-catalog\.json:3:\d+: bad_catalog/);
+    const b = fractile('stats', '--db', db, '--coverage', '1.5');
+    expect(b.status).toBe(2);
+    expect(b.stderr).toMatch(/--coverage/);
+    const g = fractile('stats', '--db', db, '--by', 'colour');
+    expect(g.status).not.toBe(0);
+    expect(g.stderr).toMatch(/unknown grouping field "colour"/);
+  });
+});
