@@ -39,6 +39,8 @@ figcaption { font-size: 12px; color: var(--muted); margin-top: 4px; }
 .chart { border: 1px solid #e6e9ee; border-radius: 4px; padding: 8px; background: #ffffff; }
 .table-wrap { overflow-x: auto; }
 table { border-collapse: collapse; width: 100%; font-size: 12.5px; }
+table.chars { width: auto; }
+table.chars td.num, table.chars th.num { min-width: 110px; }
 caption { text-align: left; color: var(--muted); padding-bottom: 4px; }
 th, td { padding: 5px 7px; border-bottom: 1px solid #e6e9ee; text-align: left; vertical-align: top; }
 thead th { background: var(--soft); font-weight: 600; border-bottom: 1px solid var(--line); vertical-align: bottom; }
