@@ -170,3 +170,36 @@ describe('stage objects shown as text', () => {
     expect(page).toContain('extrapolated by the fitted swift law, not measured');
   });
 });
+
+describe('degenerate input', () => {
+  it('renders an empty database: no groups, no drift run, no quality findings, caution still twice', async () => {
+    const base = sampleReportData({ groups: 1, properties: 1, controlCharts: 0 });
+    const page = await renderReport({
+      meta: { ...base.meta, counts: { tests: 0, curves: 0, summary_only: 0, rejected: 0, failed: 0, flagged: 0 }, catalog: { source: null, hash: null, grades: [] } },
+      groups: [],
+      drift: null,
+      quality: { rejections: [], failed: [], flagged: [] },
+    });
+    expect(count(page, '<svg ')).toBe(0);
+    expect(page).toContain('The drift stage has not been run.');
+    expect(page).toContain('No rejected input.');
+    expect(page).toContain('built-in defaults (no limits)');
+    expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
+  });
+
+  it('renders a group without a characteristic curve and a series without EWMA, skipping unparsable dates', async () => {
+    const data = sampleReportData({ groups: 1, properties: 2, controlCharts: 1 });
+    const series = data.drift!.series[0];
+    const points = [...series.points.slice(0, 20), { date: 'not a date', value: 400, test_id: 'X-1' }];
+    const page = await renderReport({
+      ...data,
+      groups: [{ ...data.groups[0], curves: null, sample_curves: [] }],
+      drift: { result: { alerts: [], change_points: [], comparisons: [] }, series: [{ ...series, points, ewma: null }] },
+    });
+    expect(page).toContain('No characteristic curve for this group');
+    // 2 histograms + 1 control chart, the latter without the EWMA panel
+    expect(count(page, '<svg ')).toBe(3);
+    expect(page).not.toContain('EWMA of');
+    expect(page).toContain('20 tests · 0 alerts');
+  });
+});

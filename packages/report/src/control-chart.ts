@@ -233,10 +233,12 @@ export async function renderControlChart(
   const width = options.width ?? 470;
   const height = options.height ?? 170;
   const withEwma = input.data.ewma_rows.length > 0;
+  // the template without the EWMA panel has no EWMA data sets
+  const { ewma_rows: _rows, ewma_center: _center, ...individualsData } = input.data;
   return renderTemplateToSvg(
     `control:${width}x${height}:${withEwma}`,
     () => controlChartTemplate(width, height, withEwma),
-    input,
+    withEwma ? input : { signals: input.signals, data: individualsData },
     { idPrefix: options.idPrefix, label },
   );
 }
