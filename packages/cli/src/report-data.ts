@@ -69,7 +69,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       key: stats[0].group,
       curves: curve && curve.valid_to_plastic_strain !== null ? { ...curve, valid_to_plastic_strain: curve.valid_to_plastic_strain, idealized: (curve.idealized ?? {}) as never, provenance: curve.provenance as never } : null,
       sample_curves: (samplesByGroup.get(k) ?? []).map((t) => sampleCurve(inp.curves.grid, t)),
-      properties: stats.map((s) => ({ stats: s as never, values: (vg?.columns[s.property] ?? []).filter((v) => Number.isFinite(v)), headline_method: 'tolerance-normal' })),
+      properties: stats.map((s) => ({ stats: s as never, values: (vg?.columns[s.property] ?? []).filter((v) => Number.isFinite(v)) })),
     });
   }
 
@@ -80,12 +80,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     center: s.monitor.individuals.center,
     ucl: s.monitor.individuals.ucl,
     lcl: s.monitor.individuals.lcl,
-    ewma: {
-      values: s.monitor.points.map((p) => p.ewma),
-      center: s.monitor.baseline.mean,
-      ucl: 'ucl' in s.monitor.ewmaLimits ? s.monitor.ewmaLimits.ucl : s.monitor.baseline.mean,
-      lcl: 'lcl' in s.monitor.ewmaLimits ? s.monitor.ewmaLimits.lcl : s.monitor.baseline.mean,
-    },
+    ewma: s.monitor.ewmaLimits && 'ucl' in s.monitor.ewmaLimits ? { values: s.monitor.points.map((p) => p.ewma), center: s.monitor.baseline.mean, ucl: s.monitor.ewmaLimits.ucl, lcl: s.monitor.ewmaLimits.lcl } : null,
     spec_min: s.lower_spec,
   }));
   // Series with alerts first, so the charts that matter lead.
