@@ -4,7 +4,7 @@
  * practice), extensometer removed early, slipping, noise, crosshead.
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, FAILURE_CODES, FLAGS, hollomonCurve, rambergOsgoodCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, FAILURE_CODES, FLAGS, hollomonCurve, plateauCurve, rambergOsgoodCurve, reduceCurve } from '@fractile/curves';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 
@@ -119,6 +119,24 @@ describe('flags', () => {
     expect(r.result.properties.shape_class).toBe('continuous');
     const clean = reduceCurve(syn.input, S);
     expect(clean.ok && clean.result.properties.flags.includes('slipping')).toBe(false);
+  });
+
+  it('isolated glitches in either channel are left out and flagged; the properties do not move', () => {
+    const syn = hollomonCurve({ kMpa: 800, n: 0.2, noiseMpa: 0.5, seed: 6 });
+    const clean = reduceCurve(syn.input, S);
+    const f = syn.input.forceN!.slice(), x = syn.input.extensionMm!.slice();
+    f[700] = 1e9; x[1200] = -1e6; f[150] = -5e4;
+    const r = reduceCurve({ ...syn.input, forceN: f, extensionMm: x }, S);
+    expect(clean.ok && r.ok).toBe(true);
+    if (!clean.ok || !r.ok) return;
+    expect(r.result.properties.flags).toContain('spikes_removed');
+    expect(r.result.details.spikes).toBe(3);
+    for (const k of ['rm_mpa', 'rp02_mpa', 'agt_pct', 'n_value', 'modulus_gpa'] as const) {
+      expect(Math.abs(r.result.properties[k]! - clean.result.properties[k]!) / Math.abs(clean.result.properties[k]!), k).toBeLessThan(2e-3);
+    }
+    // the upper yield drop and the fracture drop are steps, not glitches
+    const p = reduceCurve(plateauCurve({ rehMpa: 345, relMpa: 300, ypeStrain: 0.02, points: 500 }).input, S);
+    expect(p.ok && p.result.details.spikes).toBe(0);
   });
 
   it('fracture: A from the curve is the plastic extension at fracture, At the total', () => {

@@ -64,24 +64,44 @@ describe('random valid curves', () => {
         const firstNull = g.indexOf(null);
         if (firstNull >= 0) for (let i = firstNull; i < g.length; i++) expect(g[i]).toBeNull();
       }),
-      { numRuns: 300, seed: 20261201 },
+      { numRuns: 200, seed: 20261201 },
     );
   });
 
   it('arbitrary arrays (including junk) never throw and give a value or a failure code', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.double(), { minLength: 0, maxLength: 200 }),
-        fc.array(fc.double(), { minLength: 0, maxLength: 200 }),
+        fc.array(fc.tuple(fc.double(), fc.double()), { minLength: 0, maxLength: 300 }),
         fc.option(fc.double(), { nil: null }),
         fc.option(fc.double(), { nil: null }),
-        (f, x, a, l) => {
-          const r = reduceCurve({ forceN: Float64Array.from(f), extensionMm: Float64Array.from(x), areaMm2: a, gaugeLengthMm: l }, DEFAULT_REDUCE_SETTINGS);
+        (rows, a, l) => {
+          const r = reduceCurve({ forceN: Float64Array.from(rows, (t) => t[0]), extensionMm: Float64Array.from(rows, (t) => t[1]), areaMm2: a, gaugeLengthMm: l }, DEFAULT_REDUCE_SETTINGS);
           if (!r.ok) expect(r.code.length).toBeGreaterThan(0);
-          else noNaN(r.result.properties, 'properties');
+          else { noNaN(r.result.properties, 'properties'); noNaN(r.result.details, 'details'); }
         },
       ),
       { numRuns: 500, seed: 7 },
+    );
+  });
+
+  it('valid curves with injected blanks, infinities and spikes never throw and never give NaN', () => {
+    const base = hollomonCurve({ kMpa: 800, n: 0.2, points: 600, noiseMpa: 0.5, seed: 3 });
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.integer({ min: 0, max: 599 }), fc.constantFrom(Number.NaN, Infinity, -Infinity, 0, -1e6, 1e9), fc.boolean()), { minLength: 1, maxLength: 20 }),
+        fc.boolean(),
+        (hits, fitLaws) => {
+          const f = base.input.forceN!.slice(), x = base.input.extensionMm!.slice();
+          for (const [i, v, onForce] of hits) (onForce ? f : x)[i] = v;
+          const r = reduceCurve({ ...base.input, forceN: f, extensionMm: x }, { ...DEFAULT_REDUCE_SETTINGS, fitLaws });
+          if (!r.ok) { expect(r.code.length).toBeGreaterThan(0); return; }
+          noNaN(r.result.properties, 'properties');
+          noNaN(r.result.details, 'details');
+          noNaN(r.result.grid, 'grid');
+          noNaN(r.result.fits, 'fits');
+        },
+      ),
+      { numRuns: 300, seed: 8 },
     );
   });
 });

@@ -6,7 +6,9 @@
  * present, else extensometer extension / L0, else crosshead travel / L0 (flagged by the caller:
  * a crosshead strain includes the machine's own compliance).
  *
- * Rows where stress or strain is not finite are dropped (counted in `droppedPoints`). When the
+ * Rows where stress or strain is not finite, where the strain is at or below −1, or where one
+ * channel has an isolated glitch (a single point far off both neighbours) are dropped (counted in
+ * `droppedPoints`, glitches also in `spikes`). When the
  * extension (or given strain) channel stops before the force does — blank or frozen while the
  * specimen is still loaded — the curve is cut where it stopped (`extensometerRemovedAt`), and
  * `fullRecordMaxStressMpa` keeps the maximum of the whole force record for Rm.
@@ -26,8 +28,10 @@ export interface EngineeringCurve {
   fullRecordMaxStressMpa: number;
   /** index in the recorded channels where the strain channel stopped, or −1 */
   extensometerRemovedAt: number;
-  /** rows left out because a value was not finite */
+  /** rows left out: a value not finite, a strain at or below −1, or an isolated glitch */
   droppedPoints: number;
+  /** rows left out as isolated glitches (see markSpikes) */
+  spikes: number;
 }
 
 export type EngineeringOutcome = { ok: true; curve: EngineeringCurve } | { ok: false; code: string; message: string };
@@ -63,29 +67,78 @@ export function engineeringCurve(input: CurveInput): EngineeringOutcome {
   const n = stressSrc.length;
   if (strainSrc.length !== n) return { ok: false, code: 'channel_length_mismatch', message: `stress channel has ${n} values, strain channel ${strainSrc.length}` };
 
+  // glitches in the force channel first, so that the maximum of the record is not one of them
+  const spikes = new Uint8Array(n);
+  let nSpikes = markSpikes(stressSrc, n, spikes);
   let fullMax = -Infinity;
   for (let i = 0; i < n; i++) {
     const s = stressSrc[i] * stressScale;
-    if (Number.isFinite(s) && s > fullMax) fullMax = s;
+    if (spikes[i] === 0 && Number.isFinite(s) && s > fullMax) fullMax = s;
   }
 
   const removedAt = strainSource === 'crosshead' ? -1 : findStrainChannelStop(strainSrc, stressSrc, fullMax / stressScale);
   const end = removedAt >= 0 ? removedAt : n;
-
+  nSpikes += markSpikes(strainSrc, end, spikes);
+  for (let i = end; i < n; i++) if (spikes[i]) nSpikes--;
+  const usable = (i: number): boolean => spikes[i] === 0 && Number.isFinite(stressSrc[i]) && Number.isFinite(strainSrc[i]) && strainSrc[i] * strainScale > -1;
   let count = 0;
-  for (let i = 0; i < end; i++) if (Number.isFinite(stressSrc[i]) && Number.isFinite(strainSrc[i])) count++;
+  for (let i = 0; i < end; i++) if (usable(i)) count++;
   if (count < MIN_POINTS) return { ok: false, code: 'too_short', message: `only ${count} usable points (at least ${MIN_POINTS} needed)` };
   const strain = new Float64Array(count);
   const stressMpa = new Float64Array(count);
   let k = 0;
   for (let i = 0; i < end; i++) {
-    const s = stressSrc[i], e = strainSrc[i];
-    if (Number.isFinite(s) && Number.isFinite(e)) { stressMpa[k] = s * stressScale; strain[k] = e * strainScale; k++; }
+    if (usable(i)) { stressMpa[k] = stressSrc[i] * stressScale; strain[k] = strainSrc[i] * strainScale; k++; }
   }
   return {
     ok: true,
-    curve: { strain, stressMpa, strainSource, fullRecordMaxStressMpa: fullMax, extensometerRemovedAt: removedAt, droppedPoints: end - count },
+    curve: { strain, stressMpa, strainSource, fullRecordMaxStressMpa: fullMax, extensometerRemovedAt: removedAt, droppedPoints: end - count, spikes: nSpikes },
   };
+}
+
+/** Median of five numbers without allocating (three-level selection). */
+function median5(a: number, b: number, c: number, d: number, e: number): number {
+  // sort the pairs (a, b), (c, d); the smaller of the two minima has three values above it and is
+  // below the median: drop it, pair its partner with e, repeat; the median is then min(c, e)
+  let t: number;
+  if (a > b) { t = a; a = b; b = t; }
+  if (c > d) { t = c; c = d; d = t; }
+  if (a > c) { t = a; a = c; c = t; t = b; b = d; d = t; }
+  if (b > e) { t = b; b = e; e = t; }
+  if (b > c) { t = b; b = c; c = t; t = e; e = d; d = t; }
+  return Math.min(c, e);
+}
+
+/**
+ * Marks isolated glitches: a point further from the median of its five-point neighbourhood than
+ * 25 % of the channel's largest median-filtered magnitude and 20× the median-filtered mean step.
+ * Steps such as the fracture drop or a yield drop have the neighbourhood median on one side and
+ * are not marked. Returns the number of newly marked points. Our rule.
+ */
+function markSpikes(v: ArrayLike<number>, end: number, marks: Uint8Array): number {
+  if (end < 5) return 0;
+  let big = 0, step = 0, m = 0, prev = NaN;
+  for (let i = 2; i < end - 2; i++) {
+    const med = median5(v[i - 2], v[i - 1], v[i], v[i + 1], v[i + 2]);
+    if (!Number.isFinite(med)) { prev = NaN; continue; }
+    if (Math.abs(med) > big) big = Math.abs(med);
+    if (Number.isFinite(prev)) { step += Math.abs(med - prev); m++; }
+    prev = med;
+  }
+  if (m === 0) return 0;
+  step /= m;
+  const thr = Math.max(20 * step, 0.25 * big);
+  let count = 0;
+  for (let i = 2; i < end - 2; i++) {
+    const x = v[i];
+    if (!Number.isFinite(x)) continue;
+    const med = median5(v[i - 2], v[i - 1], x, v[i + 1], v[i + 2]);
+    if (Number.isFinite(med) && Math.abs(x - med) > thr) {
+      if (marks[i] === 0) count++;
+      marks[i] = 1;
+    }
+  }
+  return count;
 }
 
 /**

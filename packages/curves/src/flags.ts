@@ -21,6 +21,7 @@ export const FLAGS = {
   rp_not_reached: 'the curve does not reach the plastic extension of Rp before fracture',
   rt_not_reached: 'the curve does not reach the total extension of Rt before fracture',
   fracture_not_detected: 'no final force drop: the last point is taken as fracture',
+  spikes_removed: 'isolated glitches (single points far off both neighbours) were left out (details.spikes)',
 } as const;
 
 export type FlagName = keyof typeof FLAGS;

@@ -8,7 +8,7 @@
  * ReH/ReL/Ae, Rm, Ag, Agt, A → true curve to maximum force → n, K → shape class, slips → grid →
  * law fits (optional).
  *
- * `details` keys (all JSON values): strain_source, points, dropped_points, noise_mpa,
+ * `details` keys (all JSON values): strain_source, points, dropped_points, spikes, noise_mpa,
  * modulus {r2, window_mpa, window_fraction, window_narrowed, points, iterations}, toe_shift_strain, loops
  * [{unloading_modulus_gpa, at_strain}], discontinuous {kind, reh_strain, plateau_end_strain} |
  * null, rp_strain, max_force_strain, fracture_strain, at_pct, points_past_max_force,
@@ -55,6 +55,7 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const flags = new Set<FlagName>();
   const removed = eng.curve.extensometerRemovedAt >= 0;
   if (removed) flags.add('extensometer_removed_early');
+  if (eng.curve.spikes > 0) flags.add('spikes_removed');
 
   const env = findUnloadLoops(eng.curve.strain, eng.curve.stressMpa);
   if (env.loops.length > 0) flags.add('unload_reload');
@@ -180,6 +181,7 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
     strain_source: eng.curve.strainSource,
     points: n,
     dropped_points: eng.curve.droppedPoints,
+    spikes: eng.curve.spikes,
     noise_mpa: round(noise),
     modulus: { r2: round(mod.r2, 8), window_mpa: [round(mod.windowMpa[0]), round(mod.windowMpa[1])], window_fraction: mod.windowFractions, window_narrowed: mod.windowFractions[0] !== settings.modulusWindow[0] || mod.windowFractions[1] !== settings.modulusWindow[1], points: mod.points, iterations: mod.iterations },
     toe_shift_strain: round(mod.strainOrigin),
