@@ -110,35 +110,40 @@ function median5(a: number, b: number, c: number, d: number, e: number): number 
 }
 
 /**
- * Marks isolated glitches: a point further from the median of its five-point neighbourhood than
- * 25 % of the channel's largest median-filtered magnitude and 20× the median-filtered mean step.
- * Steps such as the fracture drop or a yield drop have the neighbourhood median on one side and
- * are not marked. Returns the number of newly marked points. Our rule.
+ * Marks isolated glitches: a point further than max(20× the mean step, 25 % of the largest
+ * magnitude) from both neighbours, on the same side, and from the median of its five-point
+ * neighbourhood. Steps such as the fracture drop or a yield drop have the neighbourhood median on
+ * one side and are not marked. The scale is recomputed without the marked points until nothing
+ * new is found (at most 4 rounds), so a huge glitch does not hide a smaller one. Returns the
+ * number of newly marked points. Our rule.
  */
 function markSpikes(v: ArrayLike<number>, end: number, marks: Uint8Array): number {
   if (end < 5) return 0;
-  let big = 0, step = 0, m = 0, prev = NaN;
-  for (let i = 2; i < end - 2; i++) {
-    const med = median5(v[i - 2], v[i - 1], v[i], v[i + 1], v[i + 2]);
-    if (!Number.isFinite(med)) { prev = NaN; continue; }
-    if (Math.abs(med) > big) big = Math.abs(med);
-    if (Number.isFinite(prev)) { step += Math.abs(med - prev); m++; }
-    prev = med;
-  }
-  if (m === 0) return 0;
-  step /= m;
-  const thr = Math.max(20 * step, 0.25 * big);
-  let count = 0;
-  for (let i = 2; i < end - 2; i++) {
-    const x = v[i];
-    if (!Number.isFinite(x)) continue;
-    const med = median5(v[i - 2], v[i - 1], x, v[i + 1], v[i + 2]);
-    if (Number.isFinite(med) && Math.abs(x - med) > thr) {
-      if (marks[i] === 0) count++;
-      marks[i] = 1;
+  let total = 0;
+  for (let round = 0; round < 4; round++) {
+    let big = 0, step = 0, m = 0, prev = NaN;
+    for (let i = 0; i < end; i++) {
+      const x = v[i];
+      if (marks[i] || !Number.isFinite(x)) continue;
+      const ax = x < 0 ? -x : x;
+      if (ax > big) big = ax;
+      if (!Number.isNaN(prev)) { step += Math.abs(x - prev); m++; }
+      prev = x;
     }
+    if (m === 0) return total;
+    const thr = Math.max((20 * step) / m, 0.25 * big);
+    let found = 0;
+    for (let i = 2; i < end - 2; i++) {
+      if (marks[i]) continue;
+      const x = v[i], da = x - v[i - 1], db = x - v[i + 1];
+      if (!(da > thr && db > thr) && !(da < -thr && db < -thr)) continue;
+      const med = median5(v[i - 2], v[i - 1], x, v[i + 1], v[i + 2]);
+      if (Number.isFinite(med) && Math.abs(x - med) > thr) { marks[i] = 1; found++; }
+    }
+    total += found;
+    if (found === 0) break;
   }
-  return count;
+  return total;
 }
 
 /**

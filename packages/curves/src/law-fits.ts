@@ -11,7 +11,7 @@
  *   given or from the first tenth of the points, σ0 from the 0.2 % offset, m from the last point.
  *
  * The laws are those of their original papers (Hollomon 1945, Swift 1952, Voce 1948,
- * Ramberg & Osgood 1943), as stated in any mechanics-of-materials text.
+ * Ramberg & Osgood 1943; years from memory), as stated in any mechanics-of-materials text.
  *
  * In: strain (mm/mm) and stress (MPa) arrays of equal length; points with non-positive stress (or
  * non-positive strain for Hollomon, negative plastic strain for Swift/Voce) are skipped.
