@@ -116,15 +116,13 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
   const file = displayPath;
   const decimal = map?.decimal ?? '.';
   const skip = map ? (map.headerRow > 0 ? map.headerRow - 1 : map.dataRow - 1) : 0;
-  const scanner = new SourceScanner(skip);
+  // the scanner drops comment and empty lines and maps the parser's record number to the physical line
+  const scanner = new SourceScanner(skip, map ? (map.commentPrefix ?? '\u0000') : '#');
   const parser = parse({
     delimiter: map?.delimiter ?? ',',
-    comment: (map ? map.commentPrefix : '#') ?? undefined,
-    comment_no_infix: true,
     relax_column_count: true,
     skip_empty_lines: true,
-    trim: true,
-    info: true,
+    // no trim here: cells are trimmed where read (parseCell, header names), which costs less
   });
   let bound: Bound[] | null = null;
   const headerWanted = !(map && map.headerRow === 0);
@@ -135,9 +133,9 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
   let prevTime = -Infinity;
 
   const consume = async () => {
-    for await (const item of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
-      const line = item.info.lines + skip;
-      const rec = item.record;
+    let records = 0;
+    for await (const rec of parser as AsyncIterable<string[]>) {
+      const line = scanner.physicalLine(++records);
       if (!bound) {
         headerLine = line;
         bound = map ? bindMapped(file, line, rec, map) : bindDefault(file, line, rec);
@@ -178,7 +176,7 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
     if (e instanceof NotUtf8Error) return { ok: false, rejection: reject(file, e.line, 0, 'not_utf8', e.message) };
     const err = e as { code?: string; lines?: number; message?: string };
     if (err.code === 'ENOENT' || err.code === 'EISDIR' || err.code === 'EACCES') return { ok: false, rejection: reject(file, 0, 0, err.code === 'ENOENT' ? 'missing_curve_file' : 'unreadable_file', `cannot read the curve file (${err.code})`) };
-    if (typeof err.code === 'string' && err.code.startsWith('CSV_')) return { ok: false, rejection: reject(file, (err.lines ?? 0) + skip, 0, 'malformed_csv', err.message ?? err.code) };
+    if (typeof err.code === 'string' && err.code.startsWith('CSV_')) return { ok: false, rejection: reject(file, scanner.physicalLine(err.lines ?? 0), 0, 'malformed_csv', err.message ?? err.code) };
     throw e;
   }
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };

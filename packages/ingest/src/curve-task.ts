@@ -1,0 +1,35 @@
+/**
+ * One curve file made ready for COPY: read and validated (curve-reader.ts), then each channel
+ * written as a float8[] array literal. Runs in a worker thread (curve-worker.mjs) or in-process;
+ * only the literals cross back, so the main thread only forwards text to the database.
+ */
+import { arrayLiteral } from '@fractile/store';
+import type { ChannelName, ColumnMap } from './column-map.ts';
+import { readCurveFile } from './curve-reader.ts';
+import type { Rejection } from './rejection.ts';
+
+export interface CurveTask {
+  absPath: string;
+  displayPath: string;
+  map: ColumnMap | null;
+}
+
+export type CurveTaskResult =
+  | { ok: true; sha256: string; sizeBytes: number; nPoints: number; literals: Record<ChannelName, string | null> }
+  | { ok: false; rejection: Rejection };
+
+export async function runCurveTask(task: CurveTask): Promise<CurveTaskResult> {
+  const r = await readCurveFile(task.absPath, task.displayPath, task.map);
+  if (!r.ok) return r;
+  const c = r.channels;
+  const lit = (a: Float64Array | null) => (a === null ? null : arrayLiteral(a));
+  return {
+    ok: true,
+    sha256: r.sha256,
+    sizeBytes: r.sizeBytes,
+    nPoints: c.nPoints,
+    literals: { time: lit(c.time), force: lit(c.force), extension: lit(c.extension), crosshead: lit(c.crosshead), stress: lit(c.stress), strain: lit(c.strain) },
+  };
+}
+
+export default runCurveTask;
