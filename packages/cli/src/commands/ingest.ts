@@ -23,6 +23,7 @@ export const command: CommandModule = {
       .option('--dry-run', 'check and classify everything, write nothing')
       .option('--replace', 'a stored test whose content changed is replaced (the old version is kept as history) instead of rejected')
       .option('--batch-size <n>', 'tests per transaction', '200')
+      .option('--workers <n>', 'worker threads that parse curve files (default: cores − 1, at most 8; 0: none)')
       .option('--progress <mode>', 'progress on stderr: bar (a terminal only), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
       .addHelpText(
         'after',
@@ -34,11 +35,13 @@ unknown_shape, unknown_yield_definition, invalid_date, missing_curve_file, path_
 missing_channel, time_not_monotonic, not_utf8, conflict, bad_column_map, unreadable_file, malformed_csv.
 Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage, 1 on failure.`,
       )
-      .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string }, cmd: Command) => {
+      .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string; workers?: string }, cmd: Command) => {
         const g = globals(cmd);
         const batchSize = Number(o.batchSize);
         if (!Number.isInteger(batchSize) || batchSize < 1) throw new CliError(`--batch-size must be a whole number ≥ 1, got "${o.batchSize}"`);
         // the exit status is set after the store is closed (closing the embedded engine resets it)
+        const workers = o.workers === undefined ? undefined : Number(o.workers);
+        if (workers !== undefined && (!Number.isInteger(workers) || workers < 0)) throw new CliError(`--workers must be a whole number ≥ 0, got "${o.workers}"`);
         if (!['bar', 'lines', 'none'].includes(o.progress)) throw new CliError(`--progress must be bar, lines or none, got "${o.progress}"`);
         const rejected = await withStore(g, async (store) => {
           const bar = o.progress === 'bar' ? progressBar('ingest') : { update: (done: number, total: number) => (o.progress === 'lines' ? log(`ingest: ${done}/${total}`) : undefined), stop() {} };
@@ -48,6 +51,7 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
               dryRun: Boolean(o.dryRun),
               replace: Boolean(o.replace),
               batchSize,
+              workers,
               codeVersion: CODE_VERSION,
               onProgress: (done, total) => bar.update(done, total),
             });
