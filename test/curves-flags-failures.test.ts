@@ -43,8 +43,15 @@ describe('failures', () => {
     expect(clean.ok && clean.result.properties.flags.includes('noisy')).toBe(false);
   });
 
+  it('invalid settings are a failure, not a guess', () => {
+    const syn = rambergOsgoodCurve({ sigma0Mpa: 350, m: 12 });
+    expect(reduceCurve(syn.input, { ...S, modulusWindow: [0.4, 0.1] })).toMatchObject({ ok: false, code: 'bad_settings' });
+    expect(reduceCurve(syn.input, { ...S, rpOffsetPct: 0 })).toMatchObject({ ok: false, code: 'bad_settings' });
+    expect(reduceCurve(syn.input, { ...S, gridPlasticStrain: [0, 0.02, 0.01] })).toMatchObject({ ok: false, code: 'bad_settings' });
+  });
+
   it('every failure code and flag used is documented', () => {
-    for (const code of ['no_channels', 'missing_geometry', 'channel_length_mismatch', 'too_short', 'no_elastic_part', 'no_maximum', 'too_noisy']) expect(FAILURE_CODES).toHaveProperty(code);
+    for (const code of ['bad_settings', 'no_channels', 'missing_geometry', 'channel_length_mismatch', 'too_short', 'no_elastic_part', 'no_maximum', 'too_noisy']) expect(FAILURE_CODES).toHaveProperty(code);
     for (const f of ['noisy', 'slipping', 'extensometer_removed_early', 'unload_reload', 'crosshead_only_modulus', 'modulus_implausible', 'modulus_poor_fit', 'past_max_force_ignored', 'n_window_reduced', 'given']) expect(FLAGS).toHaveProperty(f);
   });
 });

@@ -28,6 +28,7 @@ export type FlagName = keyof typeof FLAGS;
 export const FLAG_NAMES = Object.keys(FLAGS) as FlagName[];
 
 export const FAILURE_CODES = {
+  bad_settings: 'the reduction settings are invalid (a window with lo ≥ hi, a non-positive offset, a grid not increasing)',
   no_channels: 'the record has neither force (or stress) nor extension (or crosshead, or strain)',
   missing_geometry: 'S0 or L0 is needed to turn the channels into stress and strain but is missing or not positive',
   channel_length_mismatch: 'the channels have different lengths',

@@ -21,7 +21,7 @@ export { noiseSdMpa } from './noise.ts';
 export { countSlips } from './slip.ts';
 export { shapeClass } from './shape-class.ts';
 export { resampleOnGrid } from './grid.ts';
-export { reduceCurve } from './reduce.ts';
+export { reduceCurve, checkSettings } from './reduce.ts';
 export { propertiesFromSummary, type SummaryInput } from './summary.ts';
 export {
   seededRandom, seededNormal, rambergOsgoodCurve, hollomonCurve, plateauCurve, bilinearCurve, type SyntheticCommon, type SyntheticCurve,

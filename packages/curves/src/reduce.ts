@@ -49,7 +49,24 @@ function decimate(from: number, to: number, max: number): Int32Array {
   return Int32Array.from({ length: max }, (_, k) => from + Math.round((k * (count - 1)) / (max - 1)));
 }
 
+/** A message naming the first invalid setting, or null. */
+export function checkSettings(st: ReduceSettings): string | null {
+  const pos = (v: number) => Number.isFinite(v) && v > 0;
+  if (!pos(st.rpOffsetPct)) return `rpOffsetPct must be positive, got ${st.rpOffsetPct}`;
+  if (!pos(st.rtTotalPct)) return `rtTotalPct must be positive, got ${st.rtTotalPct}`;
+  const [mlo, mhi] = st.modulusWindow;
+  if (!(pos(mlo) && pos(mhi) && mlo < mhi && mhi <= 1)) return `modulusWindow must be 0 < lo < hi ≤ 1, got [${mlo}, ${mhi}]`;
+  const [nlo, nhi] = st.nWindowPct;
+  if (!(pos(nlo) && pos(nhi) && nlo < nhi)) return `nWindowPct must be 0 < lo < hi, got [${nlo}, ${nhi}]`;
+  for (let i = 1; i < st.gridPlasticStrain.length; i++) {
+    if (!(st.gridPlasticStrain[i] > st.gridPlasticStrain[i - 1])) return 'gridPlasticStrain must be strictly increasing';
+  }
+  return null;
+}
+
 export function reduceCurve(input: CurveInput, settings: ReduceSettings): ReduceOutcome {
+  const bad = checkSettings(settings);
+  if (bad) return fail('bad_settings', bad);
   const eng = engineeringCurve(input);
   if (!eng.ok) return fail(eng.code, eng.message);
   const flags = new Set<FlagName>();
