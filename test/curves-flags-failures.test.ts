@@ -25,6 +25,10 @@ describe('failures', () => {
     const n = 1200; // well before maximum force
     const r = reduceCurve({ ...syn.input, forceN: syn.input.forceN!.subarray(0, n), extensionMm: syn.input.extensionMm!.subarray(0, n) }, S);
     expect(r).toMatchObject({ ok: false, code: 'no_maximum' });
+    // with noise the last point need not be the highest: still no maximum
+    const noisy = rambergOsgoodCurve({ sigma0Mpa: 350, m: 12, noiseMpa: 1, seed: 5 });
+    const r2 = reduceCurve({ ...noisy.input, forceN: noisy.input.forceN!.subarray(0, n), extensionMm: noisy.input.extensionMm!.subarray(0, n) }, S);
+    expect(r2).toMatchObject({ ok: false, code: 'no_maximum' });
   });
 
   it('no elastic part: the record starts in the plastic range', () => {

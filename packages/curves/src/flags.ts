@@ -34,7 +34,7 @@ export const FAILURE_CODES = {
   channel_length_mismatch: 'the channels have different lengths',
   too_short: 'fewer than 20 usable points, or no strain beyond the elastic part',
   no_elastic_part: 'no straight rising part to fit the modulus to (fewer than 3 points in the window or a non-positive slope)',
-  no_maximum: 'the record ends while the force still rises: maximum force not reached',
+  no_maximum: 'the record ends while the force still rises (no fall after the highest point beyond 4× the noise and 0.1 % of it): maximum force not reached',
   too_noisy: 'stress noise above 3 % of Rm',
 } as const;
 

@@ -79,14 +79,19 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const rawStrain = env.strain, rawStress = env.stressMpa;
   const nRaw = rawStrain.length;
   const imaxRaw = indexOfMax(rawStress);
-  if (!removed && imaxRaw >= nRaw - 1) return fail('no_maximum', 'the record ends while the force still rises: maximum force not reached');
   if (imaxRaw < 5) return fail('too_short', 'maximum force within the first points of the record');
   const rmRecorded = rawStress[imaxRaw];
   if (!(rmRecorded > 0)) return fail('no_maximum', 'no positive force in the record');
+  const noise = noiseSdMpa(rawStress, 0, imaxRaw + 1);
+  if (!removed) {
+    // a maximum needs a fall after it that the noise cannot explain
+    let after = Infinity;
+    for (let i = imaxRaw + 1; i < nRaw; i++) if (rawStress[i] < after) after = rawStress[i];
+    if (!(after < rmRecorded - Math.max(4 * noise, 1e-3 * rmRecorded))) return fail('no_maximum', 'the record ends while the force still rises: maximum force not reached');
+  }
   const rmMpa = removed ? Math.max(rmRecorded, eng.curve.fullRecordMaxStressMpa) : rmRecorded;
   const maxAfterRemoval = removed && eng.curve.fullRecordMaxStressMpa > rmRecorded;
 
-  const noise = noiseSdMpa(rawStress, 0, imaxRaw + 1);
   if (noise > 0.03 * rmMpa) return fail('too_noisy', `stress noise ${noise.toFixed(2)} MPa is above 3 % of Rm (${rmMpa.toFixed(1)} MPa)`);
   if (noise > 0.005 * rmMpa) flags.add('noisy');
 
