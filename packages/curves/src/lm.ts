@@ -3,9 +3,9 @@
  * conditioning that package leaves to the caller: parameters are scaled by their start values
  * (so every one starts at 1) and residuals by a typical y, and the analytical Jacobian is passed.
  * The package stops on an absolute error only; here it runs in rounds of 5 iterations until the
- * sum of squares improves by less than 1e-8 relative (at most 40 rounds; the parameters are then
- * within about 1e-4 of their standard errors of the optimum). The package allocates
- * per point and iteration, so callers on a hot path should pass a few hundred points at most.
+ * sum of squares improves by less than 1e-8 relative (at most 40 rounds), which leaves the
+ * parameters far closer to the optimum than their standard errors. The package allocates per
+ * point and iteration, so callers on a hot path should pass a few hundred points at most.
  *
  * In: x, y, model f(θ, x), its gradient ∂f/∂θ, start θ0 (non-zero entries), bounds on θ.
  * Out: θ and the sum of squared residuals (y units), or null when the result is not finite.
