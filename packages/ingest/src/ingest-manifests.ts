@@ -48,8 +48,9 @@ export interface IngestOptions {
   /** recorded in the run row (default: this package's version) */
   codeVersion?: string;
   /**
-   * worker threads that read curve files (default: one less than the cores, at most 8; 0 reads
-   * in-process). Used only for inputs of at least 64 rows.
+   * worker threads that read curve files (default: one less than the cores, at most 8, and none
+   * below 4 cores, where the database and the main thread need them; 0 reads in-process). Used
+   * only for inputs of at least 64 rows.
    */
   workers?: number;
 }
@@ -184,8 +185,12 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
   let done = 0;
   const progress = () => opts.onProgress?.(Math.min(done, totalRows), totalRows);
 
-  const workers = Math.max(0, Math.floor(opts.workers ?? Math.min(8, availableParallelism() - 1)));
-  const pool = workers > 0 && totalRows >= 64 ? new Piscina({ filename: new URL('./curve-worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers }) : null;
+  const cores = availableParallelism();
+  const workers = Math.max(0, Math.floor(opts.workers ?? (cores >= 4 ? Math.min(8, cores - 1) : 0)));
+  const pool =
+    workers > 0 && totalRows >= 64
+      ? new Piscina({ filename: new URL('./curve-worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers, resourceLimits: { maxOldGenerationSizeMb: 96 } })
+      : null;
   const lookahead = pool ? 2 * workers : 2;
 
   let run = 0;

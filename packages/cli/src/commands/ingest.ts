@@ -23,7 +23,7 @@ export const command: CommandModule = {
       .option('--dry-run', 'check and classify everything, write nothing')
       .option('--replace', 'a stored test whose content changed is replaced (the old version is kept as history) instead of rejected')
       .option('--batch-size <n>', 'tests per transaction', '200')
-      .option('--workers <n>', 'worker threads that parse curve files (default: cores − 1, at most 8; 0: none)')
+      .option('--workers <n>', 'worker threads that parse curve files (default: cores − 1, at most 8, none below 4 cores; 0: none)')
       .option('--progress <mode>', 'progress on stderr: bar (a terminal only), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
       .addHelpText(
         'after',
