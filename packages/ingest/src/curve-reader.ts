@@ -6,7 +6,8 @@
  * column map. Unknown columns are ignored.
  *
  * Rejections (with file, line, column): not_utf8, malformed_csv, missing_column (mapped column not
- * in the header), unknown_unit, missing_channel (neither force+extension nor stress+strain),
+ * in the header), unknown_unit, missing_channel (neither force+extension, force+crosshead nor
+ * stress+strain),
  * missing_value / not_a_number / not_finite (a cell), time_not_monotonic (time decreases),
  * curve_too_short (fewer than MIN_CURVE_POINTS points, which includes an empty or truncated file).
  */
@@ -34,7 +35,18 @@ export interface CurveChannels {
   strain: Float64Array | null;
 }
 
-export type CurveReadResult = { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels } | { ok: false; rejection: Rejection };
+export type CurveReadResult =
+  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string[]>> }
+  | { ok: false; rejection: Rejection };
+
+export interface CurveReadOptions {
+  /**
+   * also return the cells' text of channels already in canonical units with a decimal point
+   * (factor 1, offset 0): validated decimal numbers that PostgreSQL's float8 input reads to the
+   * same double as Number() (both round correctly), so COPY can reuse them without reformatting.
+   */
+  keepText?: boolean;
+}
 
 /** A Float64Array that grows by doubling. */
 class Growable {
@@ -58,6 +70,8 @@ interface Bound {
   index: number; // 0-based cell index
   def: UnitDef;
   values: Growable;
+  /** the cells' own text, kept where the unit is already canonical (see `keepText`) */
+  text: string[] | null;
 }
 
 class Stop extends Error {
@@ -76,7 +90,7 @@ function bindDefault(file: string, line: number, header: string[]): Bound[] {
     if (unit === null) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `channel "${channel}" has no unit: write ${channel}[unit]`));
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `unknown unit "${unit}" for ${channel} (a ${CHANNEL_QUANTITY[channel]})`));
-    bound.push({ channel, index: i, def, values: new Growable() });
+    bound.push({ channel, index: i, def, values: new Growable(), text: null });
   });
   return bound;
 }
@@ -96,23 +110,25 @@ function bindMapped(file: string, line: number, header: string[] | null, map: Co
       if (index < 0 && header) index = header.findIndex((h) => h.trim().toLowerCase() === name.toLowerCase());
       if (index < 0) throw new Stop(reject(file, line, 0, 'missing_column', `column "${spec.column}" (${channel}) is not in the header`));
     }
-    bound.push({ channel, index, def: spec.def, values: new Growable() });
+    bound.push({ channel, index, def: spec.def, values: new Growable(), text: null });
   }
   return bound;
 }
 
 function checkChannels(file: string, line: number, bound: Bound[]): void {
   const has = (c: ChannelName) => bound.some((b) => b.channel === c);
-  if ((has('force') && has('extension')) || (has('stress') && has('strain'))) return;
+  // force with crosshead travel only is a usable record: its modulus is flagged as not
+  // representative of the material and the yield values use the fitted slope (reduce stage)
+  if ((has('force') && (has('extension') || has('crosshead'))) || (has('stress') && has('strain'))) return;
   const found = bound.map((b) => b.channel).join(', ') || 'none';
-  const why = has('force') ? 'force without extension, and no stress and strain' : has('stress') || has('strain') ? 'stress and strain must both be given' : 'no force and extension, and no stress and strain';
+  const why = has('force') ? 'force without extension or crosshead, and no stress and strain' : has('stress') || has('strain') ? 'stress and strain must both be given' : 'no force and extension, and no stress and strain';
   throw new Stop(reject(file, line, 0, 'missing_channel', `${why} (channels found: ${found})`));
 }
 
 /**
  * Reads and validates the curve file at `absPath`; `displayPath` names it in rejections.
  */
-export async function readCurveFile(absPath: string, displayPath: string, map: ColumnMap | null): Promise<CurveReadResult> {
+export async function readCurveFile(absPath: string, displayPath: string, map: ColumnMap | null, opts: CurveReadOptions = {}): Promise<CurveReadResult> {
   const file = displayPath;
   const decimal = map?.decimal ?? '.';
   const skip = map ? (map.headerRow > 0 ? map.headerRow - 1 : map.dataRow - 1) : 0;
@@ -132,6 +148,9 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
   let time: Bound | undefined;
   let prevTime = -Infinity;
 
+  const keepTexts = (bs: Bound[]) => {
+    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = [];
+  };
   const consume = async () => {
     let records = 0;
     for await (const rec of parser as AsyncIterable<string[]>) {
@@ -141,6 +160,7 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
         bound = map ? bindMapped(file, line, rec, map) : bindDefault(file, line, rec);
         checkChannels(file, line, bound);
         time = bound.find((b) => b.channel === 'time');
+        keepTexts(bound);
         continue;
       }
       if (map && line < map.dataRow) continue;
@@ -152,6 +172,8 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
           throw new Stop(reject(file, line, b.index + 1, r.code, `${b.channel}: ${what}`));
         }
         b.values.push(r.value * b.def.factor + b.def.offset);
+        // a token that underflows (1e-400) would be an error for float8 input: write the value then
+        if (b.text) b.text.push(r.value === 0 || Math.abs(r.value) < 1e-300 ? (r.value === 0 && 1 / r.value < 0 ? '-0' : String(r.value)) : rec[b.index].trim());
       }
       if (time) {
         const t = time.values.buf[n];
@@ -167,6 +189,7 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
       bound = bindMapped(file, 0, null, map!);
       checkChannels(file, 0, bound);
       time = bound.find((b) => b.channel === 'time');
+      keepTexts(bound);
     }
     await Promise.all([pipeline(createReadStream(absPath), scanner, parser), consume()]);
   } catch (e) {
@@ -182,10 +205,13 @@ export async function readCurveFile(absPath: string, displayPath: string, map: C
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };
   if (n < MIN_CURVE_POINTS) return { ok: false, rejection: reject(file, lastLine || headerLine, 0, 'curve_too_short', `${n} points; a curve needs at least ${MIN_CURVE_POINTS}`) };
   const get = (c: ChannelName) => (bound as Bound[]).find((b) => b.channel === c)?.values.take() ?? null;
+  const texts: Partial<Record<ChannelName, string[]>> = {};
+  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text;
   return {
     ok: true,
     sha256: scanner.sha256,
     sizeBytes: scanner.bytes,
+    texts,
     channels: { nPoints: n, time: get('time'), force: get('force'), extension: get('extension'), crosshead: get('crosshead'), stress: get('stress'), strain: get('strain') },
   };
 }

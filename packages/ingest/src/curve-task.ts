@@ -35,16 +35,23 @@ export function float8ArrayLiteral(a: Float64Array): string {
 }
 
 export async function runCurveTask(task: CurveTask): Promise<CurveTaskResult> {
-  const r = await readCurveFile(task.absPath, task.displayPath, task.map);
+  const r = await readCurveFile(task.absPath, task.displayPath, task.map, { keepText: true });
   if (!r.ok) return r;
   const c = r.channels;
-  const lit = (a: Float64Array | null) => (a === null ? null : float8ArrayLiteral(a));
+  const lit = (a: Float64Array | null, text: string[] | undefined) => (a === null ? null : text ? '{' + text.join(',') + '}' : float8ArrayLiteral(a));
   return {
     ok: true,
     sha256: r.sha256,
     sizeBytes: r.sizeBytes,
     nPoints: c.nPoints,
-    literals: { time: lit(c.time), force: lit(c.force), extension: lit(c.extension), crosshead: lit(c.crosshead), stress: lit(c.stress), strain: lit(c.strain) },
+    literals: {
+      time: lit(c.time, r.texts.time),
+      force: lit(c.force, r.texts.force),
+      extension: lit(c.extension, r.texts.extension),
+      crosshead: lit(c.crosshead, r.texts.crosshead),
+      stress: lit(c.stress, r.texts.stress),
+      strain: lit(c.strain, r.texts.strain),
+    },
   };
 }
 
