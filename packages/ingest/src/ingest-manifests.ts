@@ -204,160 +204,160 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
   }
 
   async function ingestAll(): Promise<IngestSummary> {
-  if (!dryRun) {
-    const settings = {
-      manifests: manifests.map((m, i) => ({ path: m.path, sha256: scans[i]?.sha256 ?? null, map: m.map ?? null, map_sha256: m.map ? (maps.get(m.map)?.sha256 ?? null) : null })),
-      replace,
-      batch_size: batchSize,
-    };
-    const row = await store.db.insertInto('ingest_runs').values({ settings: JSON.stringify(settings), code_version: opts.codeVersion ?? INGEST_VERSION }).returning('id').executeTakeFirstOrThrow();
-    run = row.id;
-    if (total.rejected.length) await store.copyRows('rejections', REJECTION_COLUMNS, total.rejected.map((r) => [run, r.file, r.line, r.column, r.code, r.message]));
-  }
-
-  const writeBatch = async (manifestPath: string, batch: ManifestRecord[], rowRejections: Rejection[], manifestSha: string, mapInfo: { map: ColumnMap; sha256: string } | null): Promise<void> => {
-    const c = new Counts();
-    c.rejected.push(...rowRejections);
-    const work = async (db: Kysely<Database>) => {
-      if (!dryRun && store.engine === 'postgres') await db.selectNoFrom((eb) => eb.fn('pg_advisory_xact_lock', [eb.val(0x6672_6163)]).as('l')).execute();
-      const existing = batch.length ? await currentVersions(db, batch) : new Map<string, Existing>();
-      const ids = !dryRun && batch.length ? await lookupIds(db, batch) : null;
-      let rowIds: number[] = [];
-      if (!dryRun && batch.length) {
-        const r = await sql<{ id: number }>`select nextval(pg_get_serial_sequence('tests', 'id')) as id from generate_series(1, ${batch.length}::int4)`.execute(db);
-        rowIds = r.rows.map((x) => Number(x.id));
-      }
-      const accepted: Accepted[] = [];
-      const superseded: number[] = [];
-      // curve files are read `lookahead` ahead of the one being written (in worker threads when
-      // there are any), so reading and parsing overlap COPY; memory: that many curves at most
-      const reads = new Map<number, Promise<CurveTaskResult>>();
-      const startRead = (i: number) => {
-        const rec = batch[i];
-        if (rec?.curve && !reads.has(i)) {
-          const task: CurveTask = { absPath: rec.curve.absPath, displayPath: rec.curve.displayPath, map: mapInfo?.map ?? null };
-          const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
-          p.catch(() => {});
-          reads.set(i, p);
-        }
-      };
-      async function* curveRows(): AsyncGenerator<unknown[]> {
-        for (let i = 0; i < batch.length; i++) {
-          const rec = batch[i];
-          for (let k = i; k <= i + lookahead && k < batch.length; k++) startRead(k);
-          let curveSha: string | null = null;
-          let curveSize = 0;
-          let row: unknown[] | null = null;
-          if (rec.curve) {
-            const res = await reads.get(i)!;
-            reads.delete(i);
-            if (!res.ok) {
-              c.rejected.push(res.rejection);
-              continue;
-            }
-            const ch = res.literals;
-            const needsGeometry = !(ch.stress && ch.strain);
-            if (needsGeometry && rec.geometryIssue) {
-              c.rejected.push(rec.geometryIssue);
-              continue;
-            }
-            if (needsGeometry && rec.gaugeIssue) {
-              c.rejected.push(rec.gaugeIssue);
-              continue;
-            }
-            curveSha = res.sha256;
-            curveSize = res.sizeBytes;
-            row = [rowIds[i] ?? 0, res.nPoints, ch.time, ch.force, ch.extension, ch.crosshead, ch.stress, ch.strain, res.sha256, rec.curve.relPath];
-          }
-          const hash = contentHash(rec, curveSha, mapInfo?.sha256 ?? null);
-          const old = existing.get(identity(rec.lab, rec.testId));
-          let version = 1;
-          if (old) {
-            if (old.content_sha256 === hash) {
-              c.duplicates++;
-              continue;
-            }
-            if (!replace) {
-              c.rejected.push(reject(manifestPath, rec.line, 0, 'conflict', `test ${rec.lab}/${rec.testId} is stored with different content (version ${old.version}); use --replace to store this as a new version`));
-              continue;
-            }
-            superseded.push(old.id);
-            version = old.version + 1;
-            c.replaced++;
-          }
-          c.accepted++;
-          accepted.push({ rec, id: rowIds[i] ?? 0, version, hash, curve: curveSha ? { sha256: curveSha, sizeBytes: curveSize } : null });
-          if (row) yield row;
-        }
-      }
-      if (dryRun) {
-        for await (const _ of curveRows()) void _;
-        return;
-      }
-      await store.copyRows('curves', CURVE_COLUMNS, curveRows());
-      if (superseded.length) await db.updateTable('tests').set({ is_current: false, superseded_at: new Date() }).where('id', 'in', superseded).execute();
-      await store.copyRows('tests', TEST_COLUMNS, accepted.map((a) => {
-        const r = a.rec;
-        return [a.id, r.lab, r.testId, a.version, true, ids!.grade(r), ids!.supplier(r), ids!.heat(r), r.testedOn, r.shape, r.diameterMm, r.thicknessMm, r.widthMm, r.areaMm2, r.gaugeLengthMm, r.orientation, r.temperatureC, a.hash, manifestSha, r.line, run];
-      }));
-      await store.copyRows('summary_records', SUMMARY_COLUMNS, accepted.filter((a) => a.rec.summary).map((a) => {
-        const s = a.rec.summary!;
-        return [a.id, s.yieldMpa, s.yieldDefinition, s.tensileMpa, s.uniformElongationPct, s.elongationPct];
-      }));
-      const files = new Map<string, { sha256: string; name: string; size_bytes: number }>();
-      for (const a of accepted) if (a.curve && a.rec.curve) files.set(a.curve.sha256, { sha256: a.curve.sha256, name: a.rec.curve.displayPath, size_bytes: a.curve.sizeBytes });
-      if (files.size) await db.insertInto('source_files').values([...files.values()]).onConflict((oc) => oc.column('sha256').doNothing()).execute();
-      if (c.rejected.length) await store.copyRows('rejections', REJECTION_COLUMNS, c.rejected.map((r) => [run, r.file, r.line, r.column, r.code, r.message]));
-    };
-    if (dryRun) await work(store.db);
-    else await store.transaction(work);
-    total.add(c);
-    done += batch.length + rowRejections.length;
-    progress();
-  };
-
-  for (let mi = 0; mi < manifests.length; mi++) {
-    const m = manifests[mi];
-    const scan = scans[mi];
-    if (!scan) continue;
-    const mapInfo = m.map ? maps.get(m.map)! : null;
     if (!dryRun) {
-      const sources = [{ sha256: scan.sha256, name: m.path, size_bytes: scan.sizeBytes }];
-      if (m.map && mapInfo) sources.push({ sha256: mapInfo.sha256, name: m.map, size_bytes: mapInfo.size });
-      await store.db.insertInto('source_files').values(sources).onConflict((oc) => oc.column('sha256').doNothing()).execute();
+      const settings = {
+        manifests: manifests.map((m, i) => ({ path: m.path, sha256: scans[i]?.sha256 ?? null, map: m.map ?? null, map_sha256: m.map ? (maps.get(m.map)?.sha256 ?? null) : null })),
+        replace,
+        batch_size: batchSize,
+      };
+      const row = await store.db.insertInto('ingest_runs').values({ settings: JSON.stringify(settings), code_version: opts.codeVersion ?? INGEST_VERSION }).returning('id').executeTakeFirstOrThrow();
+      run = row.id;
+      if (total.rejected.length) await store.copyRows('rejections', REJECTION_COLUMNS, total.rejected.map((r) => [run, r.file, r.line, r.column, r.code, r.message]));
     }
-    let batch: ManifestRecord[] = [];
-    let pendingRejections: Rejection[] = [];
-    let inBatch = new Set<string>();
-    const flush = async () => {
-      if (batch.length === 0 && pendingRejections.length === 0) return;
-      await writeBatch(m.path, batch, pendingRejections, scan.sha256, mapInfo);
-      batch = [];
-      pendingRejections = [];
-      inBatch = new Set();
-    };
-    for await (const item of readManifest(m.path)) {
-      if (item.kind === 'rejection') {
-        pendingRejections.push(item.rejection);
-        continue;
-      }
-      const key = identity(item.record.lab, item.record.testId);
-      if (inBatch.has(key)) await flush();
-      batch.push(item.record);
-      inBatch.add(key);
-      if (batch.length >= batchSize) await flush();
-    }
-    await flush();
-  }
 
-  if (!dryRun) {
-    await store.db
-      .updateTable('ingest_runs')
-      .set({ status: 'completed', finished_at: new Date(), accepted: total.accepted, duplicates: total.duplicates, replaced: total.replaced, rejected: total.rejected.length })
-      .where('id', '=', run)
-      .execute();
-  }
-  progress();
-  return { run, accepted: total.accepted, duplicates: total.duplicates, replaced: total.replaced, rejected: total.rejected, dry_run: dryRun };
+    const writeBatch = async (manifestPath: string, batch: ManifestRecord[], rowRejections: Rejection[], manifestSha: string, mapInfo: { map: ColumnMap; sha256: string } | null): Promise<void> => {
+      const c = new Counts();
+      c.rejected.push(...rowRejections);
+      const work = async (db: Kysely<Database>) => {
+        if (!dryRun && store.engine === 'postgres') await db.selectNoFrom((eb) => eb.fn('pg_advisory_xact_lock', [eb.val(0x6672_6163)]).as('l')).execute();
+        const existing = batch.length ? await currentVersions(db, batch) : new Map<string, Existing>();
+        const ids = !dryRun && batch.length ? await lookupIds(db, batch) : null;
+        let rowIds: number[] = [];
+        if (!dryRun && batch.length) {
+          const r = await sql<{ id: number }>`select nextval(pg_get_serial_sequence('tests', 'id')) as id from generate_series(1, ${batch.length}::int4)`.execute(db);
+          rowIds = r.rows.map((x) => Number(x.id));
+        }
+        const accepted: Accepted[] = [];
+        const superseded: number[] = [];
+        // curve files are read `lookahead` ahead of the one being written (in worker threads when
+        // there are any), so reading and parsing overlap COPY; memory: that many curves at most
+        const reads = new Map<number, Promise<CurveTaskResult>>();
+        const startRead = (i: number) => {
+          const rec = batch[i];
+          if (rec?.curve && !reads.has(i)) {
+            const task: CurveTask = { absPath: rec.curve.absPath, displayPath: rec.curve.displayPath, map: mapInfo?.map ?? null };
+            const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
+            p.catch(() => {});
+            reads.set(i, p);
+          }
+        };
+        async function* curveRows(): AsyncGenerator<unknown[]> {
+          for (let i = 0; i < batch.length; i++) {
+            const rec = batch[i];
+            for (let k = i; k <= i + lookahead && k < batch.length; k++) startRead(k);
+            let curveSha: string | null = null;
+            let curveSize = 0;
+            let row: unknown[] | null = null;
+            if (rec.curve) {
+              const res = await reads.get(i)!;
+              reads.delete(i);
+              if (!res.ok) {
+                c.rejected.push(res.rejection);
+                continue;
+              }
+              const ch = res.literals;
+              const needsGeometry = !(ch.stress && ch.strain);
+              if (needsGeometry && rec.geometryIssue) {
+                c.rejected.push(rec.geometryIssue);
+                continue;
+              }
+              if (needsGeometry && rec.gaugeIssue) {
+                c.rejected.push(rec.gaugeIssue);
+                continue;
+              }
+              curveSha = res.sha256;
+              curveSize = res.sizeBytes;
+              row = [rowIds[i] ?? 0, res.nPoints, ch.time, ch.force, ch.extension, ch.crosshead, ch.stress, ch.strain, res.sha256, rec.curve.relPath];
+            }
+            const hash = contentHash(rec, curveSha, mapInfo?.sha256 ?? null);
+            const old = existing.get(identity(rec.lab, rec.testId));
+            let version = 1;
+            if (old) {
+              if (old.content_sha256 === hash) {
+                c.duplicates++;
+                continue;
+              }
+              if (!replace) {
+                c.rejected.push(reject(manifestPath, rec.line, 0, 'conflict', `test ${rec.lab}/${rec.testId} is stored with different content (version ${old.version}); use --replace to store this as a new version`));
+                continue;
+              }
+              superseded.push(old.id);
+              version = old.version + 1;
+              c.replaced++;
+            }
+            c.accepted++;
+            accepted.push({ rec, id: rowIds[i] ?? 0, version, hash, curve: curveSha ? { sha256: curveSha, sizeBytes: curveSize } : null });
+            if (row) yield row;
+          }
+        }
+        if (dryRun) {
+          for await (const _ of curveRows()) void _;
+          return;
+        }
+        await store.copyRows('curves', CURVE_COLUMNS, curveRows());
+        if (superseded.length) await db.updateTable('tests').set({ is_current: false, superseded_at: new Date() }).where('id', 'in', superseded).execute();
+        await store.copyRows('tests', TEST_COLUMNS, accepted.map((a) => {
+          const r = a.rec;
+          return [a.id, r.lab, r.testId, a.version, true, ids!.grade(r), ids!.supplier(r), ids!.heat(r), r.testedOn, r.shape, r.diameterMm, r.thicknessMm, r.widthMm, r.areaMm2, r.gaugeLengthMm, r.orientation, r.temperatureC, a.hash, manifestSha, r.line, run];
+        }));
+        await store.copyRows('summary_records', SUMMARY_COLUMNS, accepted.filter((a) => a.rec.summary).map((a) => {
+          const s = a.rec.summary!;
+          return [a.id, s.yieldMpa, s.yieldDefinition, s.tensileMpa, s.uniformElongationPct, s.elongationPct];
+        }));
+        const files = new Map<string, { sha256: string; name: string; size_bytes: number }>();
+        for (const a of accepted) if (a.curve && a.rec.curve) files.set(a.curve.sha256, { sha256: a.curve.sha256, name: a.rec.curve.displayPath, size_bytes: a.curve.sizeBytes });
+        if (files.size) await db.insertInto('source_files').values([...files.values()]).onConflict((oc) => oc.column('sha256').doNothing()).execute();
+        if (c.rejected.length) await store.copyRows('rejections', REJECTION_COLUMNS, c.rejected.map((r) => [run, r.file, r.line, r.column, r.code, r.message]));
+      };
+      if (dryRun) await work(store.db);
+      else await store.transaction(work);
+      total.add(c);
+      done += batch.length + rowRejections.length;
+      progress();
+    };
+
+    for (let mi = 0; mi < manifests.length; mi++) {
+      const m = manifests[mi];
+      const scan = scans[mi];
+      if (!scan) continue;
+      const mapInfo = m.map ? maps.get(m.map)! : null;
+      if (!dryRun) {
+        const sources = [{ sha256: scan.sha256, name: m.path, size_bytes: scan.sizeBytes }];
+        if (m.map && mapInfo) sources.push({ sha256: mapInfo.sha256, name: m.map, size_bytes: mapInfo.size });
+        await store.db.insertInto('source_files').values(sources).onConflict((oc) => oc.column('sha256').doNothing()).execute();
+      }
+      let batch: ManifestRecord[] = [];
+      let pendingRejections: Rejection[] = [];
+      let inBatch = new Set<string>();
+      const flush = async () => {
+        if (batch.length === 0 && pendingRejections.length === 0) return;
+        await writeBatch(m.path, batch, pendingRejections, scan.sha256, mapInfo);
+        batch = [];
+        pendingRejections = [];
+        inBatch = new Set();
+      };
+      for await (const item of readManifest(m.path)) {
+        if (item.kind === 'rejection') {
+          pendingRejections.push(item.rejection);
+          continue;
+        }
+        const key = identity(item.record.lab, item.record.testId);
+        if (inBatch.has(key)) await flush();
+        batch.push(item.record);
+        inBatch.add(key);
+        if (batch.length >= batchSize) await flush();
+      }
+      await flush();
+    }
+
+    if (!dryRun) {
+      await store.db
+        .updateTable('ingest_runs')
+        .set({ status: 'completed', finished_at: new Date(), accepted: total.accepted, duplicates: total.duplicates, replaced: total.replaced, rejected: total.rejected.length })
+        .where('id', '=', run)
+        .execute();
+    }
+    progress();
+    return { run, accepted: total.accepted, duplicates: total.duplicates, replaced: total.replaced, rejected: total.rejected, dry_run: dryRun };
   }
 }
