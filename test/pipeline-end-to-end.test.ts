@@ -37,14 +37,16 @@ describe.each(testDatabases())('demo scenario end to end on $name', (tdb) => {
   it('ingests the scenario and rejects exactly its deliberately bad inputs, by code and location', async () => {
     const manifests = demo.manifests.map((m) => ({ path: join(dir, m.path), map: m.map ? join(dir, m.map) : null }));
     const s = await ingestManifests(store, manifests, {});
-    const got = s.rejected.map((r) => `${r.file.slice(dir.length + 1)}|${r.code}`).sort();
-    // the generator states which of its files are bad and why
-    const want = demo.expectedRejections.map((r) => `${r.file}|${r.code}`).sort();
-    expect(got).toEqual(want);
-    for (const r of s.rejected) {
-      const exp = demo.expectedRejections.find((e) => join(dir, e.file) === r.file && e.code === r.code)!;
-      if (exp.line !== null) expect(r.line).toBe(exp.line);
-    }
+    // the generator states which of its files are bad, why, and on which line (null: the whole file)
+    const got = s.rejected.map((r) => ({ file: r.file.slice(dir.length + 1), code: r.code, line: r.line }));
+    const want = demo.expectedRejections.map((r) => ({ file: r.file, code: r.code, line: r.line }));
+    const order = (a: { file: string; code: string; line: number | null }, b: typeof a) => a.file.localeCompare(b.file) || a.code.localeCompare(b.code) || (a.line ?? 0) - (b.line ?? 0);
+    got.sort(order);
+    want.sort(order);
+    expect(got.map((g) => `${g.file}|${g.code}`)).toEqual(want.map((w) => `${w.file}|${w.code}`));
+    got.forEach((g, i) => {
+      if (want[i].line !== null) expect(g.line, `${g.file} ${g.code}`).toBe(want[i].line);
+    });
     expect(s.accepted).toBe(demo.counts.tests + demo.counts.problemRowsAccepted);
     const again = await ingestManifests(store, manifests, {});
     expect(again.accepted).toBe(0);
@@ -68,10 +70,15 @@ describe.each(testDatabases())('demo scenario end to end on $name', (tdb) => {
       if (!p || p.given) continue;
       for (const [k, rel] of Object.entries(tol)) {
         if (!t[k] || p[k as keyof typeof p] === null) continue;
+        // a crosshead record's slope includes the machine (ISO 6892-1 asks for an extensometer for E)
         if (k === 'modulus_gpa' && p.flags.includes('crosshead_only_modulus')) continue;
         if ((k === 'a_pct' || k === 'ag_pct') && p.flags.includes('extensometer_removed_early')) continue;
+        if (k === 'modulus_gpa' && p.flags.includes('elongation_from_crosshead')) continue;
         const want = Number(t[k]);
-        expect(Math.abs((p[k as keyof typeof p] as number) - want) / want, `${t.test_id} ${k}`).toBeLessThan(rel);
+        // crosshead travel is referred to the parallel length, not L0: a proof offset read on it is
+        // only approximate (the issue asks for yield values from the fitted slope, nonetheless)
+        const allowed = p.flags.includes('elongation_from_crosshead') && k === 'rp02_mpa' ? 0.03 : rel;
+        expect(Math.abs((p[k as keyof typeof p] as number) - want) / want, `${t.test_id} ${k}`).toBeLessThan(allowed);
         compared++;
       }
     }

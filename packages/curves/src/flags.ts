@@ -10,6 +10,7 @@ export const FLAGS = {
   extensometer_removed_early: 'the extension channel stops (blank or frozen) before fracture; A and At are not given, Ag/Agt only if maximum force came first',
   unload_reload: 'the record contains unload–reload loops; they are cut out of the monotonic curve and their unloading moduli are in details.loops',
   crosshead_only_modulus: 'strain from the crosshead: E is the fitted slope, not representative of the material; yield values use this slope',
+  elongation_from_crosshead: 'strain from the crosshead: Ag, Agt, A, Rt, the yield-point extension and the grid curve are not given (crosshead travel is not the extension over L0)',
   modulus_implausible: 'E outside the family range (steel 190–220 GPa, aluminium 65–75 GPa)',
   modulus_poor_fit: 'the straight-line fit of the elastic window has R² below 0.995 or fewer than 8 points',
   past_max_force_ignored: 'points after maximum force are left out of the true curve, n and the law fits (details.points_past_max_force)',

@@ -150,7 +150,12 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const slips = countSlips(e, s, imax, noise, rmMpa, ypFrom, dyValid ? dy.plateauEndIndex : -1);
   if (slips > 0) flags.add('slipping');
 
-  const grid = onset
+  // Crosshead travel is referred to the parallel length and carries the machine's compliance, not
+  // the extension over L0 (ISO 6892-1 asks for an extensometer for these): elongations, Rt, the
+  // yield-point extension and the true curve on the grid are not given for such a record.
+  const strainValid = !crosshead;
+  if (crosshead) flags.add('elongation_from_crosshead');
+  const grid = onset && strainValid
     ? resampleOnGrid(tc.plasticStrain, tc.trueStressMpa, onset.index, onset.stressMpa * (1 + onset.strain), settings.gridPlasticStrain)
     : settings.gridPlasticStrain.map(() => null);
 
@@ -174,7 +179,7 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   let yieldMpa: number | null;
   switch (settings.yieldDefinition) {
     case 'rp0.2': yieldMpa = rp ? rp.stressMpa : null; break;
-    case 'rt0.5': yieldMpa = rt ? rt.stressMpa : null; break;
+    case 'rt0.5': yieldMpa = rt && strainValid ? rt.stressMpa : null; break;
     case 'reh': yieldMpa = rehMpa; break;
     case 'rel': yieldMpa = relMpa; break;
   }
@@ -183,14 +188,14 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const properties: TestProperties = {
     modulus_gpa: E / 1000,
     rp02_mpa: rp ? rp.stressMpa : null,
-    rt05_mpa: rt ? rt.stressMpa : null,
+    rt05_mpa: rt && strainValid ? rt.stressMpa : null,
     reh_mpa: rehMpa,
     rel_mpa: relMpa,
-    ype_pct: dyValid ? 100 * dy.ypeStrain : null,
+    ype_pct: dyValid && strainValid ? 100 * dy.ypeStrain : null,
     rm_mpa: rmMpa,
-    ag_pct: agPct,
-    agt_pct: agtPct,
-    a_pct: aPct,
+    ag_pct: strainValid ? agPct : null,
+    agt_pct: strainValid ? agtPct : null,
+    a_pct: strainValid ? aPct : null,
     yt_ratio: yieldMpa !== null ? yieldMpa / rmMpa : null,
     n_value: nv.n,
     k_mpa: nv.kMpa,

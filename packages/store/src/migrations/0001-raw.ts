@@ -96,7 +96,7 @@ const statements = [
      strain float8[] check (cardinality(strain) = n_points),
      source_sha256 text not null check (source_sha256 ~ '^[0-9a-f]{64}$'),
      source_path text not null,
-     check ((force_n is not null and extension_mm is not null) or (stress_mpa is not null and strain is not null))
+     check ((force_n is not null and (extension_mm is not null or crosshead_mm is not null)) or (stress_mpa is not null and strain is not null))
    )`,
   `create index curves_source on curves (source_sha256)`,
   `create table summary_records (
