@@ -20,7 +20,7 @@ let demo: DemoManifest;
 let catalog: Catalog;
 
 beforeAll(() => {
-  demo = generateDemo({ outDir: dir, tests: 160, seed: 7, pointsPerCurve: 700 });
+  demo = generateDemo({ outDir: dir, tests: 600, seed: 7, pointsPerCurve: 500 });
   catalog = loadCatalog(join(dir, demo.catalog));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -60,7 +60,7 @@ describe.each(testDatabases())('demo scenario end to end on $name', (tdb) => {
     const rows = await loadProperties(store.db);
     const byId = new Map(rows.map((p) => [`${p.lab}/${p.test_id}`, p]));
     const truth = parse(readFileSync(join(dir, demo.truth), 'utf8'), { columns: true }) as Record<string, string>[];
-    // relative tolerances: noise, toe and sampling of a 700-point record (yield within 1 %, ISO 6892-1
+    // relative tolerances: noise, toe and sampling of a 500-point record (yield within 1 %, ISO 6892-1
     // asks for Rp to a resolution well inside this; E is the noisiest by nature)
     const tol: Record<string, number> = { modulus_gpa: 0.05, rp02_mpa: 0.01, rt05_mpa: 0.01, reh_mpa: 0.01, rel_mpa: 0.015, rm_mpa: 0.01, ag_pct: 0.12, a_pct: 0.02 };
     let compared = 0;

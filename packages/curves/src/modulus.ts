@@ -92,6 +92,13 @@ export function fitModulusIterative(
   let lo = window[0], hi = window[1];
   for (let it = 1; it <= 8; it++) {
     let fit = fitModulusWindow(strain, stressMpa, lo * ref, hi * ref, to);
+    if (!fit && it === 1) {
+      // a coarsely sampled record can have fewer than 3 points in the window: widen it once to
+      // 5–80 % (our rule; the fit then has few points and is flagged as a poor fit)
+      lo = Math.min(lo, 0.05);
+      hi = Math.max(hi, 0.8);
+      fit = fitModulusWindow(strain, stressMpa, lo * ref, hi * ref, to);
+    }
     if (!fit) return best;
     // a window that is visibly curved is narrowed: its lower end raised past a toe, or its upper
     // end lowered below the start of plastic flow (our rule; t of the quadratic term above 5)

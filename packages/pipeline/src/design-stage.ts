@@ -8,7 +8,7 @@ import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve, type Des
 import { groupRows, type GroupField } from './aggregate/grouping.ts';
 import { hashOf } from './hash.ts';
 import { currentGrid, loadProperties, type PropertyFilter, type PropertyRow } from './properties.ts';
-import { ALGORITHM_VERSION, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
+import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
 
 export interface CurvesStageOptions {
   by: GroupField[];
@@ -44,7 +44,7 @@ export async function runCurves(store: Store, opts: CurvesStageOptions): Promise
   const design: DesignOptions = { ...DEFAULT_DESIGN_OPTIONS, ...opts.design };
   const rows = (await loadProperties(db, opts.filter, { withGrid: true })).filter((r) => r.grid_stress_mpa && r.grid_stress_mpa.length > 0);
   const grids = await currentGrid(db);
-  const settings = { algorithm_version: ALGORITHM_VERSION, by: opts.by, design, filter: opts.filter ?? {}, grids };
+  const settings = { algorithm_version: STAGE_VERSIONS.design, by: opts.by, design, filter: opts.filter ?? {}, grids };
   const settingsHash = await saveSettings(db, 'design', settings);
   const inputHash = hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`));
   const done = await findDoneRun(db, 'design', settingsHash, inputHash);

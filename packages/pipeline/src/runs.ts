@@ -7,8 +7,14 @@ import { sql, type Kysely } from 'kysely';
 import type { Database, StageName } from '@fractile/store';
 import { hashOf } from './hash.ts';
 
-/** Version of the pipeline's algorithms; bump when a change alters results for the same input. */
-export const ALGORITHM_VERSION = '2';
+/**
+ * Version of the per-test reduction (part of every per-test result's key); bump when a change
+ * alters per-test results for the same input.
+ */
+export const ALGORITHM_VERSION = '3';
+
+/** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
+export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '2', design: '2', monitor: '3' } as const;
 
 /** Stores a settings body under its hash (once) and returns the hash. */
 export async function saveSettings(db: Kysely<Database>, stage: StageName, body: object): Promise<string> {

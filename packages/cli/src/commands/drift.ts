@@ -20,13 +20,14 @@ export const command: CommandModule = {
         .description('supplier drift over time: individuals/moving-range, EWMA and CUSUM charts, change points, rolling capability, supplier comparison, alerts')
         .option('--by <fields>', 'series grouping (comma-separated)', 'supplier,grade')
         .option('--property <keys...>', 'properties (default: yield_mpa, rm_mpa)')
-        .option('--baseline <spec>', 'baseline: N (first N tests) or FROM..TO dates (default: first 30 tests)')
+        .option('--baseline <spec>', 'baseline: N (first N points) or FROM..TO dates (default: the first third of each series, at least 30 points)')
         .option('--ewma-lambda <l>', 'EWMA weight λ (default 0.1)')
         .option('--ewma-l <L>', 'EWMA limit width L in SDs (default 2.814, ARL0 ≈ 500 with λ = 0.1)')
         .option('--cusum-k <k>', 'CUSUM reference value k in SDs (default 0.5)')
         .option('--cusum-h <h>', 'CUSUM decision interval h in SDs (default 5)')
         .option('--catalog <file>', 'grade catalog for the spec minima (default: the catalog of the last reduce)')
-        .option('--all-rules', 'every chart signal is an alert (default: only signals toward a specification limit of the property)'),
+        .option('--all-rules', 'every chart signal is an alert (default: only signals toward a specification limit of the property)')
+        .option('--per-test', 'chart every test (default: one point per heat, the mean of its tests)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
         const { driftContract, parseGroupBy, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
@@ -49,7 +50,7 @@ export const command: CommandModule = {
       };
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits' });
+        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits', unit: o.perTest ? 'test' : 'heat' });
         log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts, ${r.change_points.length} change points`);
         const flat = r.alerts.map((a) => ({ group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
         emit(g.format, driftContract(r), flat);

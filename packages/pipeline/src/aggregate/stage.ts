@@ -9,7 +9,7 @@ import { correlationMatrices, summarizeProperty, type PropertySummary } from '@f
 import { gradeSettings, type Catalog } from '../catalog.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { ALGORITHM_VERSION, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
 
@@ -99,7 +99,7 @@ export async function runAggregate(store: Store, opts: AggregateOptions): Promis
   const rows = await loadProperties(db, opts.filter);
   const tLoad = performance.now() - t0;
   const settings = {
-    algorithm_version: ALGORITHM_VERSION, by: opts.by,
+    algorithm_version: STAGE_VERSIONS.aggregate, by: opts.by,
     properties: opts.properties ?? [...NUMERIC_PROPERTIES],
     levels: opts.levels ?? DEFAULT_LEVELS,
     priorV: opts.priorV ?? null,

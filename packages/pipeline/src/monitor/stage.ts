@@ -11,7 +11,7 @@ import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import { limitsFor } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { ALGORITHM_VERSION, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
 
 export interface DriftOptions {
   by: GroupField[];
@@ -27,6 +27,8 @@ export interface DriftOptions {
    * charts still show every signal. 'all': every rule.
    */
   alertRules?: 'toward-limits' | 'all';
+  /** chart unit: 'heat' (default; the mean of each heat's tests) or 'test' (every test) */
+  unit?: 'heat' | 'test';
 }
 
 const DOWNWARD_RULES = new Set(['individuals-below-lcl', 'ewma-low', 'cusum-low', 'change-point-down', 'capability-margin']);
@@ -49,10 +51,56 @@ export function alertMatters(rule: string, limits: { lower: number | null; upper
  */
 export const DRIFT_MIN_CPK = 2 / 3;
 
+// Charts are standardized by the baseline's sample SD (not the moving range): consecutive tests
+// often share a heat, so the moving range sees only the within-heat scatter and a chart on it would
+// alarm at every change of heat.
+
+/**
+ * Default baseline of a series: its first third, at least 30 tests (all if fewer). Tests of one
+ * heat come one after another, so a short baseline sees few heats and underrates the spread
+ * between them; a third of three years of supply is the first year.
+ */
+export function defaultBaseline(n: number): { firstN: number } {
+  return { firstN: Math.min(n, Math.max(30, Math.floor(n / 3))) };
+}
+
 /** A change point is an alert when it is the series' last (the current level) and moves ≥ 1 SD. */
 const CHANGE_ALERT_MIN_SD = 1;
 
 export const DEFAULT_DRIFT_PROPERTIES: PropertyKey[] = ['yield_mpa', 'rm_mpa'];
+
+type TestPoint = { value: number; date: string; testId: string; heat: string | null };
+
+/**
+ * One point per heat: the mean of the heat's tests, dated by its first test, in time order (tests
+ * without a heat stay points of their own). Tests of a heat share its chemistry and rolling, so
+ * they are a rational subgroup (Montgomery): charting single tests would mistake the change from
+ * one heat to the next for drift.
+ */
+export function heatMeans(points: TestPoint[]): { points: TestPoint[]; members: Map<string, string[]> } {
+  const byHeat = new Map<string, { sum: number; n: number; date: string; ids: string[]; order: number }>();
+  const out: (TestPoint & { order: number })[] = [];
+  points.forEach((pt, order) => {
+    if (!pt.heat) {
+      out.push({ ...pt, order });
+      return;
+    }
+    const h = byHeat.get(pt.heat);
+    if (h) {
+      h.sum += pt.value;
+      h.n++;
+      h.ids.push(pt.testId);
+    } else byHeat.set(pt.heat, { sum: pt.value, n: 1, date: pt.date, ids: [pt.testId], order });
+  });
+  const members = new Map<string, string[]>();
+  for (const [heat, h] of byHeat) {
+    const id = `heat ${heat}`;
+    members.set(id, h.ids);
+    out.push({ value: h.sum / h.n, date: h.date, testId: id, heat, order: h.order });
+  }
+  out.sort((a, b) => a.order - b.order);
+  return { points: out.map(({ order: _o, ...pt }) => pt), members };
+}
 
 export interface DriftAlert {
   group: Record<string, string>;
@@ -114,17 +162,19 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
     const grade = grading(g.key, rows, g.rows);
     const spec = grade === null ? null : gradeSettings(opts.catalog, grade).spec;
     for (const p of properties) {
-      const pts = g.rows
+      const perTest = g.rows
         .map((ri, j) => ({ value: g.columns[p][j], date: rows[ri].tested_on, testId: `${rows[ri].lab}/${rows[ri].test_id}`, heat: rows[ri].heat }))
         .filter((x) => Number.isFinite(x.value));
+      const { points: pts, members } = (opts.unit ?? 'heat') === 'heat' ? heatMeans(perTest) : { points: perTest, members: null };
       if (pts.length < MIN_SERIES) continue;
+      const expand = (ids: string[]) => (members ? ids.flatMap((id) => members.get(id) ?? [id]) : ids);
       const limits = limitsFor(p, spec);
       const lowerSpec = limits.lower;
-      const m = monitorSeries(pts, { minCpk: DRIFT_MIN_CPK, ...opts.monitor, lowerSpec });
+      const m = monitorSeries(pts, { minCpk: DRIFT_MIN_CPK, sigma: 'sample-sd', baseline: defaultBaseline(pts.length), ...opts.monitor, lowerSpec });
       series.push({ group: g.key, property: p, lower_spec: lowerSpec, monitor: m });
       const lastChange = Math.max(-1, ...m.alerts.filter((a) => a.rule.startsWith('change-point')).map((a) => a.first_index));
       const current = (a: (typeof m.alerts)[number]) => !a.rule.startsWith('change-point') || opts.alertRules === 'all' || (a.first_index === lastChange && Math.abs(a.magnitude_sd) >= CHANGE_ALERT_MIN_SD);
-      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules) && current(a)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: a.tests });
+      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules) && current(a)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: expand(a.tests) });
       for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, shift: c.shift, ci: c.ci });
     }
   }
@@ -153,10 +203,11 @@ export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftR
   const db = store.db;
   const rows = await loadProperties(db, opts.filter);
   const settings = {
-    algorithm_version: ALGORITHM_VERSION, by: opts.by,
+    algorithm_version: STAGE_VERSIONS.monitor, by: opts.by,
     properties: opts.properties ?? DEFAULT_DRIFT_PROPERTIES,
     monitor: opts.monitor ?? {},
     alert_rules: opts.alertRules ?? 'toward-limits',
+    unit: opts.unit ?? 'heat',
     filter: opts.filter ?? {},
     spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
   };

@@ -65,7 +65,12 @@ export function selectBaseline(points: readonly SeriesPoint[], spec: BaselineSpe
 }
 
 /** Mean, SD, MR̄ and sigma of values[start..end]. */
-export function baselineStats(values: ArrayLike<number>, start: number, end: number): BaselineStats {
+/**
+ * `sigmaFrom`: 'moving-range' (default; Montgomery's MR̄/d2, the short-term spread) or
+ * 'sample-sd' (the baseline's sample SD, which also holds the spread between consecutive runs such
+ * as heats — the right yardstick where tests come in runs from one heat).
+ */
+export function baselineStats(values: ArrayLike<number>, start: number, end: number, sigmaFrom: 'moving-range' | 'sample-sd' = 'moving-range'): BaselineStats {
   const n = end - start + 1;
   let sum = 0;
   for (let i = start; i <= end; i++) sum += values[i];
@@ -78,7 +83,10 @@ export function baselineStats(values: ArrayLike<number>, start: number, end: num
   const mrBar = n > 1 ? mrSum / (n - 1) : 0;
   let sigma = 0;
   let sigmaSource: BaselineStats['sigmaSource'] = 'none';
-  if (mrBar > 0) {
+  if (sigmaFrom === 'sample-sd' && sd > 0) {
+    sigma = sd;
+    sigmaSource = 'sample-sd';
+  } else if (mrBar > 0) {
     sigma = mrBar / MR_D2;
     sigmaSource = 'moving-range';
   } else if (sd > 0) {
@@ -88,12 +96,16 @@ export function baselineStats(values: ArrayLike<number>, start: number, end: num
   return { n, start, end, mean, sd, mrBar, sigma, sigmaSource };
 }
 
-/** Montgomery's individuals and MR limits from a baseline. */
+/**
+ * Montgomery's individuals and MR limits from a baseline: x̄ ± 2.66·MR̄ (= 3·MR̄/d2); with a
+ * sample-SD sigma, x̄ ± 3·s.
+ */
 export function individualsLimits(b: BaselineStats): IndividualsLimits {
+  const half = b.sigmaSource === 'sample-sd' ? 3 * b.sigma : INDIVIDUALS_E2 * b.mrBar;
   return {
     center: b.mean,
-    ucl: b.mean + INDIVIDUALS_E2 * b.mrBar,
-    lcl: b.mean - INDIVIDUALS_E2 * b.mrBar,
+    ucl: b.mean + half,
+    lcl: b.mean - half,
     mrUcl: MR_D4 * b.mrBar,
   };
 }

@@ -124,7 +124,7 @@ export function monitorSeries(points: readonly SeriesPoint[], opts: MonitorOptio
     errors.push({ code: n === 0 ? 'series-empty' : 'baseline-empty', message: n === 0 ? 'the series has no points' : 'no point falls inside the baseline date range' });
     return finishAlerts(result, values, ids, dates, opts);
   }
-  const b = baselineStats(values, range.start, range.end);
+  const b = baselineStats(values, range.start, range.end, opts.sigma);
   result.baseline = { ...b };
   const lim = individualsLimits(b);
   result.individuals = lim;

@@ -52,6 +52,11 @@ export interface ChangePointOptions {
 
 export interface MonitorOptions {
   baseline?: BaselineSpec;
+  /**
+   * Sigma that standardizes the charts: 'moving-range' (default, MR̄/d2, Montgomery) or
+   * 'sample-sd' (the baseline's SD, including spread between runs of tests such as heats).
+   */
+  sigma?: 'moving-range' | 'sample-sd';
   /** Default λ = 0.1, L = 2.814 (Lucas & Saccucci 1990: ARL0 ≈ 500); λ = 0.1, L = 2.7 gives ARL0 ≈ 369. */
   ewma?: EwmaParams;
   /** 'asymptotic' (default; the limits behind the published ARL tables) or 'exact' (time-varying). */
