@@ -51,7 +51,13 @@ export function createEmbeddedFolder(): { path: string; remove(): void } {
 
 /** Opens the store at a target, running `cleanup` after the store is closed. */
 async function withCleanup(target: string, cleanup: () => Promise<void> | void): Promise<Store> {
-  const store = await openStore(target);
+  let store: Store;
+  try {
+    store = await openStore(target);
+  } catch (e) {
+    await cleanup();
+    throw e;
+  }
   const close = store.close.bind(store);
   store.close = async () => {
     await close();
