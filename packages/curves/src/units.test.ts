@@ -32,10 +32,11 @@ describe('NIST SP 811 factors', () => {
 
   it('stress: 1 psi = 1 lbf/in² (table 6.894 757 E+03 Pa), 1 ksi = 1000 psi', () => {
     const psiMpa = unitFor('stress', 'psi')!.factor;
-    // the stored factor 6.894757293168 is the exact 6.894757293168361… cut at 13 digits (5e-14 relative)
-    relClose(psiMpa, LBF_N / (25.4 * 25.4), 1e-13);
+    // derived from the exact lbf and inch factors: 6.894757293168361… × 10⁻³ MPa
+    relClose(psiMpa, LBF_N / (25.4 * 25.4), 1e-15);
     expect((psiMpa * 1e6).toPrecision(7)).toBe('6894.757'); // Pa
-    relClose(KSI_MPA, (1000 * LBF_N) / (25.4 * 25.4), 1e-13);
+    relClose(KSI_MPA, (1000 * LBF_N) / (25.4 * 25.4), 1e-15);
+    relClose(KSI_MPA, 6.894757293168361, 1e-15);
     expect(unitFor('stress', 'ksi')!.factor).toBe(KSI_MPA);
     expect(unitFor('stress', 'GPa')!.factor).toBe(1000);
     expect(unitFor('stress', 'N/mm2')!.factor).toBe(1);

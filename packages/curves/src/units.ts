@@ -3,7 +3,8 @@
  *
  * Factors are the exact values of NIST SP 811 (Guide for the Use of the International System of
  * Units), Appendix B: 1 in = 25.4 mm (exact), 1 lbf = 4.4482216152605 N, 1 kip = 1000 lbf,
- * 1 psi = 6.894757293168e-3 MPa, 1 ksi = 6.894757293168 MPa, t[°C] = (t[°F] − 32)/1.8,
+ * 1 psi = 1 lbf/in² ≈ 6.894757293168e-3 MPa, 1 ksi = 1000 psi ≈ 6.894757293168 MPa (derived from the
+ * lbf and inch factors, not rounded), t[°C] = (t[°F] − 32)/1.8,
  * t[°C] = T[K] − 273.15.
  *
  * Unit names are matched case-insensitively after trimming; an unknown unit returns `null`, never
@@ -23,7 +24,8 @@ export interface UnitDef {
 
 export const LBF_N = 4.4482216152605;
 export const IN_MM = 25.4;
-export const KSI_MPA = 6.894757293168;
+/** 1 ksi = 1000 lbf/in², derived exactly from the two factors above (6.894757293168361…). */
+export const KSI_MPA = (1000 * LBF_N) / (IN_MM * IN_MM);
 
 const linear = (quantity: Quantity, canonical: string, factor: number): UnitDef => ({ quantity, factor, offset: 0, canonical });
 

@@ -4,7 +4,6 @@
  * message` and recorded; the rest still loads. Exit code 3 when anything was rejected.
  */
 import type { Command } from 'commander';
-import { formatRejection, ingestManifests } from '@fractile/ingest';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { progressBar } from '../progress.ts';
 import { withStore } from '../shared-options.ts';
@@ -36,6 +35,7 @@ missing_channel, time_not_monotonic, not_utf8, conflict, bad_column_map, unreada
 Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage, 1 on failure.`,
       )
       .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string; workers?: string }, cmd: Command) => {
+        const { formatRejection, ingestManifests } = await import('@fractile/ingest');
         const g = globals(cmd);
         const batchSize = Number(o.batchSize);
         if (!Number.isInteger(batchSize) || batchSize < 1) throw new CliError(`--batch-size must be a whole number ≥ 1, got "${o.batchSize}"`);

@@ -1,6 +1,5 @@
 /** `fractile tests`: what is stored, one row per test (identity, grade, supplier, heat, date, geometry, curve or not). */
 import type { Command } from 'commander';
-import { listTests } from '@fractile/store';
 import { CliError, emit, globals, type CommandModule } from '../context.ts';
 import { withStore } from '../shared-options.ts';
 
@@ -28,6 +27,7 @@ export const command: CommandModule = {
       .option('--history', 'also list versions replaced by a later ingest')
       .addHelpText('after', `\nOutput (--format json): an array of {${COLUMNS.join(', ')}}.`)
       .action(async (o: Record<string, unknown>, cmd: Command) => {
+        const { listTests } = await import('@fractile/store');
         const g = globals(cmd);
         const filter = {
           lab: list(o.lab),
