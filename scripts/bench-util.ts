@@ -1,17 +1,6 @@
 /** Small helpers shared by the benchmarks: a seeded generator, timing, and peak memory. */
 import type { PropertyRow } from '@fractile/pipeline';
-
-/** mulberry32: a small seeded 32-bit generator, enough for benchmark data. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom } from '@fractile/curves';
 
 export function normal(u: () => number): () => number {
   return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());
@@ -31,7 +20,7 @@ export async function time<T>(label: string, fn: () => Promise<T> | T): Promise<
 
 /** Synthetic per-test property rows: `groups` grade × supplier groups, in date order. */
 export function syntheticRows(n: number, groups: number, seed = 1): PropertyRow[] {
-  const u = rng(seed);
+  const u = seededRandom(seed);
   const z = normal(u);
   const rows: PropertyRow[] = [];
   const start = Date.UTC(2023, 0, 1);

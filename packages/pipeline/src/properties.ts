@@ -5,6 +5,7 @@
  */
 import { sql, type Kysely } from 'kysely';
 import type { Database } from '@fractile/store';
+import type { TestProperties } from '@fractile/curves';
 import type { Catalog } from './catalog.ts';
 import { ALGORITHM_VERSION } from './runs.ts';
 
@@ -19,30 +20,14 @@ export const PROPERTY_ROW_KEYS = [
   'ag_pct', 'agt_pct', 'a_pct', 'yt_ratio', 'n_value', 'k_mpa', 'yield_mpa', 'yield_definition', 'shape_class', 'flags',
 ] as const;
 
-export interface PropertyRow {
+/** A test's identity and metadata with its properties (the contract keys of TestProperties). */
+export interface PropertyRow extends TestProperties {
   lab: string;
   test_id: string;
   grade: string;
   supplier: string;
   heat: string | null;
   tested_on: string;
-  modulus_gpa: number | null;
-  rp02_mpa: number | null;
-  rt05_mpa: number | null;
-  reh_mpa: number | null;
-  rel_mpa: number | null;
-  ype_pct: number | null;
-  rm_mpa: number | null;
-  ag_pct: number | null;
-  agt_pct: number | null;
-  a_pct: number | null;
-  yt_ratio: number | null;
-  n_value: number | null;
-  k_mpa: number | null;
-  yield_mpa: number | null;
-  yield_definition: string | null;
-  shape_class: string | null;
-  flags: string[];
   /** given values of a summary-only record, not computed from a curve */
   given: boolean;
   failure: { code: string; message: string } | null;
@@ -150,8 +135,8 @@ export async function loadProperties(db: Kysely<Database>, filter: PropertyFilte
     n_value: num(r.n_value),
     k_mpa: num(r.k_mpa),
     yield_mpa: num(r.yield_mpa),
-    yield_definition: (r.yield_definition as string | null) ?? null,
-    shape_class: (r.shape_class as string | null) ?? null,
+    yield_definition: (r.yield_definition as TestProperties['yield_definition']) ?? null,
+    shape_class: (r.shape_class as TestProperties['shape_class']) ?? null,
     flags: Array.isArray(r.flags) ? (r.flags as string[]) : [],
     given: Boolean(r.given),
     failure: r.ok ? null : { code: String(r.failure_code), message: String(r.failure_message) },

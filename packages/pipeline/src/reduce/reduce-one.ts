@@ -8,26 +8,15 @@ import type { ReduceRow, ReduceTask } from './task.ts';
 
 const finiteOrNull = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
 
-function propertyColumns(p: TestProperties): Omit<ReduceRow, 'test_pk' | 'settings_hash' | 'ok' | 'given' | 'failure_code' | 'failure_message' | 'uniform_plastic_strain' | 'grid_stress_mpa' | 'fits' | 'details'> {
-  return {
-    modulus_gpa: finiteOrNull(p.modulus_gpa),
-    rp02_mpa: finiteOrNull(p.rp02_mpa),
-    rt05_mpa: finiteOrNull(p.rt05_mpa),
-    reh_mpa: finiteOrNull(p.reh_mpa),
-    rel_mpa: finiteOrNull(p.rel_mpa),
-    ype_pct: finiteOrNull(p.ype_pct),
-    rm_mpa: finiteOrNull(p.rm_mpa),
-    ag_pct: finiteOrNull(p.ag_pct),
-    agt_pct: finiteOrNull(p.agt_pct),
-    a_pct: finiteOrNull(p.a_pct),
-    yt_ratio: finiteOrNull(p.yt_ratio),
-    n_value: finiteOrNull(p.n_value),
-    k_mpa: finiteOrNull(p.k_mpa),
-    yield_mpa: finiteOrNull(p.yield_mpa),
-    yield_definition: p.yield_definition,
-    shape_class: p.shape_class,
-    flags: p.flags,
-  };
+const NUMERIC_KEYS = [
+  'modulus_gpa', 'rp02_mpa', 'rt05_mpa', 'reh_mpa', 'rel_mpa', 'ype_pct', 'rm_mpa', 'ag_pct', 'agt_pct', 'a_pct', 'yt_ratio', 'n_value', 'k_mpa', 'yield_mpa',
+] as const;
+
+/** The properties with every non-finite number stored as null (never NaN in the database). */
+function propertyColumns(p: TestProperties): TestProperties {
+  const out = { ...p };
+  for (const k of NUMERIC_KEYS) out[k] = finiteOrNull(p[k]);
+  return out;
 }
 
 const EMPTY_PROPERTIES: TestProperties = {

@@ -2,7 +2,7 @@
  * What the reduce stage hands to a worker and gets back: one test's channels (canonical units) or
  * its given summary values, and the row to store. Plain, structured-clone-able data.
  */
-import type { CurveInput, ReduceSettings, SummaryInput } from '@fractile/curves';
+import type { CurveInput, ReduceSettings, SummaryInput, TestProperties } from '@fractile/curves';
 
 export interface ReduceTask {
   testPk: number;
@@ -12,30 +12,14 @@ export interface ReduceTask {
   summary: SummaryInput | null;
 }
 
-export interface ReduceRow {
+/** One row of test_results as the reduce stage writes it (JSON columns as text). */
+export interface ReduceRow extends TestProperties {
   test_pk: number;
   settings_hash: string;
   ok: boolean;
   given: boolean;
   failure_code: string | null;
   failure_message: string | null;
-  modulus_gpa: number | null;
-  rp02_mpa: number | null;
-  rt05_mpa: number | null;
-  reh_mpa: number | null;
-  rel_mpa: number | null;
-  ype_pct: number | null;
-  rm_mpa: number | null;
-  ag_pct: number | null;
-  agt_pct: number | null;
-  a_pct: number | null;
-  yt_ratio: number | null;
-  n_value: number | null;
-  k_mpa: number | null;
-  yield_mpa: number | null;
-  yield_definition: string | null;
-  shape_class: string | null;
-  flags: string[];
   uniform_plastic_strain: number | null;
   grid_stress_mpa: (number | null)[] | null;
   fits: string | null;
