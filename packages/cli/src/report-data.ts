@@ -47,6 +47,16 @@ function sampleCurve(grid: number[], t: { test_id: string; stress_mpa: (number |
   return { test_id: t.test_id, plastic_strain: x, stress_mpa: y };
 }
 
+/** The EWMA panel in the property's units: the charts run on standardized values, z = (x − mean)/sigma. */
+function ewmaInUnits(m: DriftResult['series'][number]['monitor']): ControlSeries['ewma'] {
+  const lim = m.ewmaLimits;
+  if (!lim || !('ucl' in lim) || !(m.baseline.sigma > 0)) return null;
+  const { mean, sigma } = m.baseline;
+  const toUnits = (z: number) => mean + sigma * z;
+  const conv = (v: number | number[]) => (Array.isArray(v) ? v.map(toUnits) : toUnits(v));
+  return { values: m.points.map((p) => toUnits(p.ewma)), center: mean, ucl: conv(lim.ucl), lcl: conv(lim.lcl), lambda: m.ewma?.lambda, L: m.ewma?.L };
+}
+
 export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
   const db = store.db;
   const rows = await loadProperties(db, {}, {});
@@ -80,7 +90,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     center: s.monitor.individuals.center,
     ucl: s.monitor.individuals.ucl,
     lcl: s.monitor.individuals.lcl,
-    ewma: s.monitor.ewmaLimits && 'ucl' in s.monitor.ewmaLimits ? { values: s.monitor.points.map((p) => p.ewma), center: s.monitor.baseline.mean, ucl: s.monitor.ewmaLimits.ucl, lcl: s.monitor.ewmaLimits.lcl } : null,
+    ewma: ewmaInUnits(s.monitor),
     spec_min: s.lower_spec,
   }));
   // Series with alerts first, so the charts that matter lead.
