@@ -176,6 +176,9 @@ async function copyOnClient(client: pg.PoolClient, table: string, columns: strin
 
 async function openServer(target: string, opts: OpenStoreOptions): Promise<Store> {
   const pool = new pg.Pool({ connectionString: target, types: pgTypes, max: 4 });
+  // An idle pooled connection that the server ends (restart, dropped database) must not bring
+  // down the process: the pool discards it and the next query opens a new one.
+  pool.on('error', () => {});
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
   const current = new AsyncLocalStorage<pg.PoolClient>();
 
