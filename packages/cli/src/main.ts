@@ -20,6 +20,8 @@ export async function buildProgram(): Promise<Command> {
     .option('--db <url|path>', 'database: a folder for the embedded database, or postgres://… (default: $DATABASE_URL, else ./.fractile/db)')
     .option('--format <format>', 'output format: table, json or csv', 'table')
     .showHelpAfterError()
+    // usage errors exit with 2 like every other bad input (commander's own default is 1)
+    .exitOverride((err) => process.exit(err.exitCode === 0 ? 0 : 2))
     .configureOutput({ writeOut: (s) => process.stdout.write(s), writeErr: (s) => process.stderr.write(s) });
 
   const dir = join(here, 'commands');
