@@ -33,7 +33,7 @@ export class FolderMigrationProvider implements MigrationProvider {
   constructor(private readonly folder: string) {}
   async getMigrations(): Promise<Record<string, Migration>> {
     const out: Record<string, Migration> = {};
-    const files = (await fs.readdir(this.folder)).filter((f) => /\.(ts|js|mts|mjs)$/.test(f) && !/\.d\.m?ts$/.test(f) && !/\.test\./.test(f)).sort();
+    const files = (await fs.readdir(this.folder)).filter((f) => /\.(ts|js|mjs)$/.test(f) && !/\.d\.ts$/.test(f) && !/\.test\./.test(f)).sort();
     for (const f of files) {
       const mod = (await import(pathToFileURL(path.join(this.folder, f)).href)) as Partial<Migration> & { default?: Migration };
       const m = mod.default && typeof mod.default.up === 'function' ? mod.default : mod;

@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
-import { addFilterOptions, probability, readFilter, withStore } from '../shared-options.ts';
+import { addFilterOptions, probability, readFilter, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 const LAWS = ['swift', 'voce', 'hollomon'] as const;

@@ -1,7 +1,7 @@
 /** `fractile drift`: control charts, change points and supplier comparison (contract JSON). */
 import type { Command } from 'commander';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
+import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 function positive(s: unknown, name: string): number | undefined {

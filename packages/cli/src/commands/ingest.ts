@@ -6,7 +6,7 @@
 import type { Command } from 'commander';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { progressBar } from '../progress.ts';
-import { withStore } from '../shared-options.ts';
+import { withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 export const EXIT_REJECTED = 3;

@@ -1,7 +1,7 @@
 /** `fractile properties`: the per-test property table (contract keys). */
 import type { Command } from 'commander';
 import { emit, globals, type CommandModule } from '../context.ts';
-import { addFilterOptions, readFilter, withStore } from '../shared-options.ts';
+import { addFilterOptions, readFilter, withStore } from '../common-options.ts';
 
 export const command: CommandModule = {
   order: 30,

@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import { emit, globals, log, type CommandModule } from '../context.ts';
 import { progressBar } from '../progress.ts';
-import { resolveCatalog, withStore } from '../shared-options.ts';
+import { resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 export const command: CommandModule = {

@@ -1,7 +1,7 @@
 /** `fractile report`: the HTML report (and exports) of what is reduced, reusing stored stage results. */
 import type { Command } from 'commander';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { resolveCatalog, withStore } from '../shared-options.ts';
+import { resolveCatalog, withStore } from '../common-options.ts';
 
 export const command: CommandModule = {
   order: 70,

@@ -1,7 +1,7 @@
 /** `fractile run`: every stage, incrementally, then the report and exports. */
 import type { Command } from 'commander';
 import { emit, globals, log, type CommandModule } from '../context.ts';
-import { resolveCatalog, withStore } from '../shared-options.ts';
+import { resolveCatalog, withStore } from '../common-options.ts';
 
 export const command: CommandModule = {
   order: 80,

@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import type { PropertyKey } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, toTable, type CommandModule } from '../context.ts';
-import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
+import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 const DEFAULT: PropertyKey[] = ['yield_mpa', 'rm_mpa', 'ag_pct', 'n_value'];

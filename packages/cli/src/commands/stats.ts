@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import type { Level } from '@fractile/pipeline';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { addFilterOptions, probability, readFilter, readProperties, resolveCatalog, withStore } from '../shared-options.ts';
+import { addFilterOptions, probability, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 export const command: CommandModule = {

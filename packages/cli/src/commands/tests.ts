@@ -1,7 +1,7 @@
 /** `fractile tests`: what is stored, one row per test (identity, grade, supplier, heat, date, geometry, curve or not). */
 import type { Command } from 'commander';
 import { CliError, emit, globals, type CommandModule } from '../context.ts';
-import { withStore } from '../shared-options.ts';
+import { withStore } from '../common-options.ts';
 
 const COLUMNS = ['lab', 'test_id', 'version', 'is_current', 'grade', 'supplier', 'heat', 'tested_on', 'shape', 'diameter_mm', 'thickness_mm', 'width_mm', 'area_mm2', 'gauge_length_mm', 'orientation', 'temperature_c', 'has_curve', 'has_summary'];
 const TABLE_COLUMNS = ['lab', 'test_id', 'grade', 'supplier', 'heat', 'tested_on', 'shape', 'area_mm2', 'gauge_length_mm', 'has_curve'];
