@@ -126,7 +126,9 @@ describe.each(testDatabases())('ingest formats on $name', (tdb) => {
     const r = await ingestManifests(store, [{ path: path.join(d, 'm.csv') }]);
     expect(r.rejected).toEqual([]);
     const t = await all(store);
-    expect(t.get('S1')!.summary).toEqual({ yieldMpa: 50 * 6.894757293168, yieldDefinition: 'reh', tensileMpa: 520, uniformElongationPct: 14.5, elongationPct: 28 });
+    // 1 ksi = 1000 lbf/in² with 1 lbf = 0.45359237 kg × 9.80665 m/s² and 1 in = 25.4 mm, both exact
+    // by definition (NIST SP 811, appendix B): 6.894757293168361 MPa
+    expect(t.get('S1')!.summary).toEqual({ yieldMpa: expect.closeTo((50 * 1000 * 0.45359237 * 9.80665) / (25.4 * 25.4), 9), yieldDefinition: 'reh', tensileMpa: 520, uniformElongationPct: 14.5, elongationPct: 28 });
     expect(t.get('S1')!.curve).toBeNull();
     expect(t.get('S2')!.summary).toEqual({ yieldMpa: null, yieldDefinition: null, tensileMpa: 505, uniformElongationPct: null, elongationPct: 31 });
     const listed = await listTests(store.db);

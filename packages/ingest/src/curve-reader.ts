@@ -1,9 +1,10 @@
 /**
- * Reads one curve file, streaming (csv-parse over a hashing, UTF-8-checking scanner), into
- * channels in canonical units (s, N, mm, MPa, mm/mm) with NIST SP 811 factors from
- * @fractile/curves. Our format: header `name[unit]` cells (time, force, extension, crosshead,
+ * Reads one curve file into channels in canonical units (s, N, mm, MPa, mm/mm) with NIST SP 811
+ * factors from @fractile/curves. Our format: header `name[unit]` cells (time, force, extension, crosshead,
  * stress, strain), `#` comment lines, comma delimiter, decimal point; anything else through a
- * column map. Unknown columns are ignored.
+ * column map. Unknown columns are ignored. Plain valid files in our format are read whole by a
+ * fast hand-written reader (plain-curve.ts); everything else, and every rejection, streams through
+ * csv-parse over a hashing, UTF-8-checking scanner.
  *
  * Rejections (with file, line, column): not_utf8, malformed_csv, missing_column (mapped column not
  * in the header), unknown_unit, missing_channel (neither force+extension, force+crosshead nor
@@ -12,6 +13,7 @@
  * curve_too_short (fewer than MIN_CURVE_POINTS points, which includes an empty or truncated file).
  */
 import { createReadStream } from 'node:fs';
+import { open } from 'node:fs/promises';
 import { pipeline } from 'node:stream/promises';
 import { parse } from 'csv-parse';
 import type { UnitDef } from '@fractile/curves';
@@ -21,9 +23,13 @@ import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
 import { parseCell, splitHeader } from './parse-cell.ts';
 import type { Rejection } from './rejection.ts';
 import { reject } from './rejection.ts';
+import { readPlainCurve } from './plain-curve.ts';
 import { NotUtf8Error, SourceScanner } from './source-scanner.ts';
 
 export const MIN_CURVE_POINTS = 20;
+
+/** files up to this size in our plain format are read whole by the fast reader (plain-curve.ts) */
+const PLAIN_MAX_BYTES = 32 * 1024 * 1024;
 
 export interface CurveChannels {
   nPoints: number;
@@ -46,6 +52,8 @@ export interface CurveReadOptions {
    * same double as Number() (both round correctly), so COPY can reuse them without reformatting.
    */
   keepText?: boolean;
+  /** always use the general (csv-parse) reader, not the fast one for plain files */
+  general?: boolean;
 }
 
 /** A Float64Array that grows by doubling. */
@@ -129,6 +137,42 @@ function checkChannels(file: string, line: number, bound: Bound[]): void {
  * Reads and validates the curve file at `absPath`; `displayPath` names it in rejections.
  */
 export async function readCurveFile(absPath: string, displayPath: string, map: ColumnMap | null, opts: CurveReadOptions = {}): Promise<CurveReadResult> {
+  if (!map && !opts.general) {
+    const plain = await readPlainFile(absPath, opts.keepText ?? false);
+    if (plain) return plain;
+  }
+  return readGeneral(absPath, displayPath, map, opts);
+}
+
+/** The fast reader's result for a plain, valid file; null otherwise (including read errors). */
+async function readPlainFile(absPath: string, keepText: boolean): Promise<CurveReadResult | null> {
+  let buf: Buffer;
+  try {
+    const fh = await open(absPath, 'r');
+    try {
+      const st = await fh.stat();
+      if (!st.isFile() || st.size > PLAIN_MAX_BYTES) return null;
+      buf = await fh.readFile();
+    } finally {
+      await fh.close();
+    }
+  } catch {
+    return null;
+  }
+  const r = readPlainCurve(buf, MIN_CURVE_POINTS, keepText);
+  if (!r) return null;
+  const v = r.values;
+  return {
+    ok: true,
+    sha256: r.sha256,
+    sizeBytes: r.sizeBytes,
+    texts: r.texts,
+    channels: { nPoints: r.nPoints, time: v.time ?? null, force: v.force ?? null, extension: v.extension ?? null, crosshead: v.crosshead ?? null, stress: v.stress ?? null, strain: v.strain ?? null },
+  };
+}
+
+/** The general, streaming reader (csv-parse): any dialect, and every rejection. */
+async function readGeneral(absPath: string, displayPath: string, map: ColumnMap | null, opts: CurveReadOptions): Promise<CurveReadResult> {
   const file = displayPath;
   const decimal = map?.decimal ?? '.';
   const skip = map ? (map.headerRow > 0 ? map.headerRow - 1 : map.dataRow - 1) : 0;
