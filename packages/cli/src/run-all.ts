@@ -73,7 +73,7 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
     const bar = progressBar('reduce');
     const reduced = await timed(timings, 'reduce', () => runReduce(store, { catalog: o.catalog, codeVersion: CODE_VERSION, workers: o.workers, onProgress: (d, t) => bar.update(d, t) }));
     bar.stop();
-    log(`  reduce: ${reduced.reduced} reduced, ${reduced.given} summary-only, ${reduced.failed} failed, ${reduced.unchanged} unchanged`);
+    log(`  reduce: ${reduced.reduced} reduced, ${reduced.given} summary-only, ${reduced.failed} failed, ${reduced.unchanged} unchanged (read ${reduced.timings.read.toFixed(1)} s, compute ${reduced.timings.compute.toFixed(1)} s, write ${reduced.timings.write.toFixed(1)} s)`);
   }
   const aggregate = await timed(timings, 'stats', () => runAggregate(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION }));
   const curves = await timed(timings, 'curves', () => runCurves(store, { by: o.by, codeVersion: CODE_VERSION, generatedAt: o.generatedAt }));

@@ -34,6 +34,8 @@ export interface ReduceStageSummary {
   given: number;
   unchanged: number;
   seconds: number;
+  /** wall time waiting for the database reads, the computation and the writes (s) */
+  timings: { read: number; compute: number; write: number };
 }
 
 interface WorkItem {
@@ -130,18 +132,24 @@ export async function runReduce(store: Store, opts: ReduceStageOptions): Promise
   const workers = Math.max(0, opts.workers ?? availableParallelism());
   const pool = workers > 0 && todo.length >= 64 ? new Piscina({ filename: new URL('./worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers }) : null;
   const counts = { reduced: 0, failed: 0, given: 0 };
+  const timings = { read: 0, compute: 0, write: 0 };
   const batchSize = opts.batchSize ?? 256;
   const batches = chunk(todo, batchSize);
   try {
     let next = batches.length ? loadTasks(store, batches[0], settingsByGrade) : null;
     for (let b = 0; b < batches.length; b++) {
+      let t = performance.now();
       const tasks = await next!;
+      timings.read += performance.now() - t;
       next = b + 1 < batches.length ? loadTasks(store, batches[b + 1], settingsByGrade) : null;
+      t = performance.now();
       let rows: ReduceRow[];
       if (pool) {
         const parts = chunk(tasks, Math.ceil(tasks.length / (workers * 2)));
         rows = (await Promise.all(parts.map((p) => pool.run(p) as Promise<ReduceRow[]>))).flat();
       } else rows = tasks.map(reduceOne);
+      timings.compute += performance.now() - t;
+      t = performance.now();
       for (const r of rows) {
         if (!r.ok) counts.failed++;
         else if (r.given) counts.given++;
@@ -149,6 +157,7 @@ export async function runReduce(store: Store, opts: ReduceStageOptions): Promise
       }
       const columns = [...REDUCE_ROW_COLUMNS, 'run_id', 'algorithm_version'];
       await store.copyRows('test_results', columns, rows.map((r) => [...REDUCE_ROW_COLUMNS.map((c) => r[c]), run, ALGORITHM_VERSION]));
+      timings.write += performance.now() - t;
       opts.onProgress?.(Math.min(todo.length, (b + 1) * batchSize), todo.length);
     }
   } catch (e) {
@@ -158,5 +167,6 @@ export async function runReduce(store: Store, opts: ReduceStageOptions): Promise
     await pool?.destroy();
   }
   await finishRun(db, run, { ...counts, unchanged });
-  return { run, ...counts, unchanged, seconds: (performance.now() - t0) / 1000 };
+  const sec = (ms: number) => ms / 1000;
+  return { run, ...counts, unchanged, seconds: sec(performance.now() - t0), timings: { read: sec(timings.read), compute: sec(timings.compute), write: sec(timings.write) } };
 }
