@@ -92,6 +92,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     lcl: s.monitor.individuals.lcl,
     ewma: ewmaInUnits(s.monitor),
     spec_min: s.lower_spec,
+    point_label: s.monitor.points.some((p) => p.testId.startsWith('heat ')) ? 'points (heat means)' : 'tests',
   }));
   // Series with alerts first, so the charts that matter lead.
   const alerted = new Set((inp.drift?.alerts ?? []).map((a) => keyOf(a.group) + a.property));

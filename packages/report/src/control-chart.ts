@@ -97,7 +97,7 @@ export function controlChartInput(series: ControlSeries, context: ControlChartCo
   return {
     signals: {
       title_text: options.title ?? `${label.name} — ${groupLabel(series.group)}`,
-      subtitle_text: `${points.length} tests · ${alerts.length} alert${alerts.length === 1 ? '' : 's'}${ewmaNote}`,
+      subtitle_text: `${points.length} ${series.point_label ?? 'tests'} · ${alerts.length} alert${alerts.length === 1 ? '' : 's'}${ewmaNote}`,
       y_title: propertyAxisTitle(series.property),
       ewma_title: `EWMA of ${label.name} [${label.unit}]`,
     },

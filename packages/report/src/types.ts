@@ -223,6 +223,8 @@ export interface ControlSeries {
   ewma?: EwmaSeries | null;
   spec_min?: number | null;
   spec_max?: number | null;
+  /** what one point is, plural (default 'tests'; e.g. 'heat means') */
+  point_label?: string;
 }
 
 export interface ReportDrift {
