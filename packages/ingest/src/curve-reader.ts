@@ -50,6 +50,7 @@ export interface CurveReadOptions {
    * also return the cells' text of channels already in canonical units with a decimal point
    * (factor 1, offset 0): validated decimal numbers that PostgreSQL's float8 input reads to the
    * same double as Number() (both round correctly), so COPY can reuse them without reformatting.
+   * The plain reader also gives text for power-of-ten factors (kN → N; see plain-curve.ts).
    */
   keepText?: boolean;
   /** always use the general (csv-parse) reader, not the fast one for plain files */

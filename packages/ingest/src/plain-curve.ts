@@ -18,7 +18,10 @@
  * Numbers: a mantissa of at most 15 significant digits with a decimal power p, |p| ≤ 22, is
  * converted as m·10^p or m/10^-p — both operands are exact doubles, so the one IEEE-754 rounding
  * gives the correctly rounded result (Clinger, "How to read floating point numbers accurately",
- * PLDI 1990, the fast path); other cells go through Number() on the cell's text.
+ * PLDI 1990, the fast path); other cells go through Number() on the cell's text. The same
+ * argument lets a cell in a unit whose factor is 10^k (kN → N) go to COPY as its own digits with
+ * the exponent moved by k, wherever that decimal's double equals the stored value (checked per
+ * cell), which spares formatting the number.
  */
 import { createHash } from 'node:crypto';
 import type { UnitDef } from '@fractile/curves';
@@ -32,7 +35,10 @@ export interface PlainCurve {
   sizeBytes: number;
   nPoints: number;
   values: Partial<Record<ChannelName, Float64Array>>;
-  /** cells' text of channels in canonical units (factor 1, offset 0), when asked for */
+  /**
+   * when asked for: COPY text of the values of channels whose factor is a power of ten (offset 0),
+   * the cells' own text where the unit is canonical
+   */
   texts: Partial<Record<ChannelName, string[]>>;
 }
 
@@ -44,6 +50,8 @@ interface Col {
   def: UnitDef;
   values: Float64Array;
   text: string[] | null;
+  /** the factor is 10^scale (scale 1…22, offset 0): cells are rewritten by moving the exponent; else 0 */
+  scale: number;
 }
 
 /**
@@ -85,7 +93,8 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
     if (unit === null || cols.some((c) => c.channel === channel)) return null;
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) return null;
-    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && def.factor === 1 && def.offset === 0 ? [] : null };
+    const scale = def.offset === 0 ? POW10.indexOf(def.factor) : -1;
+    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? [] : null, scale: Math.max(0, scale) };
     cols.push(col);
     byIndex[i] = col;
   }
@@ -124,6 +133,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
           neg = c === 0x2d;
           c = text.charCodeAt(++i);
         }
+        const intStart = i;
         let m = 0;
         let sig = 0; // significant digits taken into m
         let digits = 0;
@@ -136,7 +146,10 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
           digits++;
           c = text.charCodeAt(++i);
         }
+        const intEnd = i;
+        let fracStart = i;
         if (c === 0x2e && i < b) {
+          fracStart = i + 1;
           c = text.charCodeAt(++i);
           while (c >= 0x30 && c <= 0x39 && i < b) {
             if (m !== 0 || c !== 0x30) {
@@ -148,6 +161,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
             c = text.charCodeAt(++i);
           }
         }
+        const fracEnd = i;
         if (digits === 0) return null;
         let exp = 0;
         if ((c === 0x65 || c === 0x45) && i < b) {
@@ -176,8 +190,23 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
         if (!Number.isFinite(v)) return null;
         const value = v * col.def.factor + col.def.offset;
         col.values[n] = value;
-        // a token that underflows (1e-400) would be an error for float8 input: write the value then
-        if (col.text) col.text.push(v === 0 || Math.abs(v) < 1e-300 ? (v === 0 && 1 / v < 0 ? '-0' : String(v)) : text.slice(a, b));
+        if (col.text) {
+          if (col.scale === 0) {
+            // a token that underflows (1e-400) would be an error for float8 input: write the value then
+            col.text.push(v === 0 || Math.abs(v) < 1e-300 ? (v === 0 && 1 / v < 0 ? '-0' : String(v)) : text.slice(a, b));
+          } else {
+            // the cell's digits with the exponent moved by the factor's power of ten, where that
+            // decimal's correctly rounded double (which float8 input also reads) is the value
+            // stored; else the value's shortest round-trip form
+            const q = p + col.scale;
+            let w = NaN;
+            if (sig <= 15 && q >= -22 && q <= 22 && value !== 0) {
+              w = q >= 0 ? m * POW10[q] : m / POW10[-q];
+              if (neg) w = -w;
+            }
+            col.text.push(w === value ? (neg ? '-' : '') + text.slice(intStart, intEnd) + text.slice(fracStart, fracEnd) + 'e' + q : String(value));
+          }
+        }
       }
       cell++;
       if (e === end) break;
