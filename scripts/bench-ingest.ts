@@ -94,6 +94,8 @@ async function runPhase(phase: string): Promise<PhaseResult> {
     const seconds = (performance.now() - t0) / 1000;
     const cpu = process.cpuUsage(cpu0);
     const maxRssMb = rssMb();
+    const mu = process.memoryUsage();
+    process.stderr.write(`  memory at the end: rss ${(mu.rss / 1e6).toFixed(0)} MB, JS heap ${(mu.heapTotal / 1e6).toFixed(0)} MB, external ${(mu.external / 1e6).toFixed(0)} MB (array buffers ${(mu.arrayBuffers / 1e6).toFixed(0)} MB)\n`);
     await store.close();
     if (r.rejected.length) throw new Error(`benchmark data rejected: ${JSON.stringify(r.rejected.slice(0, 3))}`);
     return { phase, seconds, maxRssMb, openRssMb, cpuSeconds: (cpu.user + cpu.system) / 1e6, accepted: r.accepted };
