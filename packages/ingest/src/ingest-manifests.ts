@@ -3,7 +3,9 @@
  *
  * Streaming and batched: manifest rows are read as a stream; a batch (up to `batchSize` tests)
  * holds only row metadata, while curves are parsed one file at a time and streamed straight into
- * COPY, so memory does not grow with the batch size. Each batch is one transaction (curves, test
+ * COPY, so memory does not grow with the batch size. While a batch is written, the manifest is
+ * read on and the next batch's first curves are read (batch writes stay one after the other;
+ * measured on 2,000 tests × 2,000 points with batches of 200: 5.9 → 4.9 s). Each batch is one transaction (curves, test
  * rows, summary values, rejections): a crash leaves no half-test, and a re-run skips what was
  * committed (same content hash → duplicate) and completes the rest.
  *
@@ -215,6 +217,15 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
       if (total.rejected.length) await store.copyRows('rejections', REJECTION_COLUMNS, total.rejected.map((r) => [run, r.file, r.line, r.column, r.code, r.message]));
     }
 
+    const readCurve = (rec: ManifestRecord, mapInfo: { map: ColumnMap } | null): Promise<CurveTaskResult> => {
+      const task: CurveTask = { absPath: rec.curve!.absPath, displayPath: rec.curve!.displayPath, map: mapInfo?.map ?? null };
+      const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
+      p.catch(() => {});
+      return p;
+    };
+    // curves of the next batch read while the current one is written (at most `lookahead`)
+    const prefetched = new Map<ManifestRecord, Promise<CurveTaskResult>>();
+
     const writeBatch = async (manifestPath: string, batch: ManifestRecord[], rowRejections: Rejection[], manifestSha: string, mapInfo: { map: ColumnMap; sha256: string } | null): Promise<void> => {
       const c = new Counts();
       c.rejected.push(...rowRejections);
@@ -235,10 +246,9 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
         const startRead = (i: number) => {
           const rec = batch[i];
           if (rec?.curve && !reads.has(i)) {
-            const task: CurveTask = { absPath: rec.curve.absPath, displayPath: rec.curve.displayPath, map: mapInfo?.map ?? null };
-            const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
-            p.catch(() => {});
-            reads.set(i, p);
+            const early = prefetched.get(rec);
+            prefetched.delete(rec);
+            reads.set(i, early ?? readCurve(rec, mapInfo));
           }
         };
         async function* curveRows(): AsyncGenerator<unknown[]> {
@@ -329,25 +339,38 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
       let batch: ManifestRecord[] = [];
       let pendingRejections: Rejection[] = [];
       let inBatch = new Set<string>();
+      // the batch being written: the manifest is read on (and the next batch's first curves) meanwhile;
+      // writes stay one after the other
+      let writing: Promise<void> | null = null;
       const flush = async () => {
+        if (writing) await writing;
+        writing = null;
         if (batch.length === 0 && pendingRejections.length === 0) return;
-        await writeBatch(m.path, batch, pendingRejections, scan.sha256, mapInfo);
+        const w = writeBatch(m.path, batch, pendingRejections, scan.sha256, mapInfo);
+        w.catch(() => {});
+        writing = w;
         batch = [];
         pendingRejections = [];
         inBatch = new Set();
       };
-      for await (const item of readManifest(m.path)) {
-        if (item.kind === 'rejection') {
-          pendingRejections.push(item.rejection);
-          continue;
+      try {
+        for await (const item of readManifest(m.path)) {
+          if (item.kind === 'rejection') {
+            pendingRejections.push(item.rejection);
+            continue;
+          }
+          const key = identity(item.record.lab, item.record.testId);
+          if (inBatch.has(key)) await flush();
+          batch.push(item.record);
+          inBatch.add(key);
+          if (writing && item.record.curve && prefetched.size < lookahead) prefetched.set(item.record, readCurve(item.record, mapInfo));
+          if (batch.length >= batchSize) await flush();
         }
-        const key = identity(item.record.lab, item.record.testId);
-        if (inBatch.has(key)) await flush();
-        batch.push(item.record);
-        inBatch.add(key);
-        if (batch.length >= batchSize) await flush();
+        await flush();
+      } finally {
+        // never leave a write running behind an error (the run is then marked failed)
+        if (writing) await writing;
       }
-      await flush();
     }
 
     if (!dryRun) {
