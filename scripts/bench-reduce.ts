@@ -9,7 +9,7 @@
  */
 import { Piscina } from 'piscina';
 import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, plateauCurve, type ReduceSettings } from '@fractile/curves';
-import type { ReduceTask } from '@fractile/pipeline';
+import { channelBuffers, type ReduceTask } from '@fractile/pipeline';
 import { peakRssMb } from './bench-util.ts';
 
 const arg = (name: string, d: number) => Number(process.argv.find((a) => a.startsWith(`--${name}=`))?.split('=')[1] ?? d);
@@ -39,11 +39,15 @@ async function throughput(n: number, workers: number, fitLaws: boolean): Promise
   const tasks = makeTasks(n, fitLaws);
   const pool = new Piscina({ filename: new URL('../packages/pipeline/src/reduce/worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers });
   // warm-up: load the workers and JIT the reduction
-  await Promise.all(Array.from({ length: workers }, () => pool.run(tasks.slice(0, 20))));
+  const warm = makeTasks(20 * workers, fitLaws);
+  await Promise.all(Array.from({ length: workers }, (_, w) => pool.run(warm.slice(20 * w, 20 * w + 20))));
   const t0 = performance.now();
   const chunk = 64;
   const parts: Promise<unknown>[] = [];
-  for (let i = 0; i < tasks.length; i += chunk) parts.push(pool.run(tasks.slice(i, i + chunk)));
+  for (let i = 0; i < tasks.length; i += chunk) {
+    const part = tasks.slice(i, i + chunk);
+    parts.push(pool.run(part, { transferList: channelBuffers(part) }));
+  }
   await Promise.all(parts);
   const s = (performance.now() - t0) / 1000;
   await pool.destroy();

@@ -14,7 +14,7 @@ import type { Catalog } from '../catalog.ts';
 import { ALGORITHM_VERSION, finishRun, saveSettings, startRun } from '../runs.ts';
 import { reduceOne } from './reduce-one.ts';
 import { reduceSettingsFor, reduceSettingsHash, type ReduceOverrides } from './settings.ts';
-import { REDUCE_ROW_COLUMNS, type ReduceRow, type ReduceTask } from './task.ts';
+import { channelBuffers, REDUCE_ROW_COLUMNS, type ReduceRow, type ReduceTask } from './task.ts';
 
 export interface ReduceStageOptions {
   catalog: Catalog | null;
@@ -146,7 +146,7 @@ export async function runReduce(store: Store, opts: ReduceStageOptions): Promise
       let rows: ReduceRow[];
       if (pool) {
         const parts = chunk(tasks, Math.ceil(tasks.length / (workers * 2)));
-        rows = (await Promise.all(parts.map((p) => pool.run(p) as Promise<ReduceRow[]>))).flat();
+        rows = (await Promise.all(parts.map((p) => pool.run(p, { transferList: channelBuffers(p) }) as Promise<ReduceRow[]>))).flat();
       } else rows = tasks.map(reduceOne);
       timings.compute += performance.now() - t;
       t = performance.now();

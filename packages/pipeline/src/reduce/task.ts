@@ -31,3 +31,17 @@ export const REDUCE_ROW_COLUMNS: readonly (keyof ReduceRow)[] = [
   'ype_pct', 'rm_mpa', 'ag_pct', 'agt_pct', 'a_pct', 'yt_ratio', 'n_value', 'k_mpa', 'yield_mpa', 'yield_definition', 'shape_class', 'flags',
   'uniform_plastic_strain', 'grid_stress_mpa', 'fits', 'details',
 ];
+
+/**
+ * The channel buffers of a batch, to move (not copy) to a worker thread: structured cloning of
+ * the channels would otherwise keep the main thread busy and the workers idle.
+ */
+export function channelBuffers(tasks: readonly ReduceTask[]): ArrayBuffer[] {
+  const out = new Set<ArrayBuffer>();
+  for (const t of tasks) {
+    const c = t.curve;
+    if (!c) continue;
+    for (const a of [c.timeS, c.forceN, c.extensionMm, c.crossheadMm, c.stressMpa, c.strain]) if (a && a.buffer instanceof ArrayBuffer) out.add(a.buffer);
+  }
+  return [...out];
+}
