@@ -15,7 +15,7 @@ const out = mkdtempSync(join(tmpdir(), 'fractile-bench-demo-'));
 const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
 console.log(`bench:demo — fractile demo --tests ${tests} on embedded PGlite (output in ${out})`);
 const t0 = performance.now();
-const r = spawnSync(process.execPath, [bin, 'demo', '--fresh', '--out', out, '--tests', tests, '--format', 'json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
+const r = spawnSync(process.execPath, ['--max-semi-space-size=2', bin, 'demo', '--fresh', '--out', out, '--tests', tests, '--format', 'json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
 const wall = (performance.now() - t0) / 1000;
 if (r.status !== 0) {
   console.error(r.stderr);

@@ -131,7 +131,7 @@ async function writeCopyFile(dir: string): Promise<void> {
 }
 
 function child(phase: string, data: string, target: string): PhaseResult {
-  const r = spawnSync(process.execPath, ['--import', 'tsx', here, '--phase', phase, '--data', data, '--target', target, '--batch-size', String(batchSize), ...(workers === undefined ? [] : ['--workers', String(workers)])], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'], maxBuffer: 1 << 20 });
+  const r = spawnSync(process.execPath, ['--max-semi-space-size=2', '--import', 'tsx', here, '--phase', phase, '--data', data, '--target', target, '--batch-size', String(batchSize), ...(workers === undefined ? [] : ['--workers', String(workers)])], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'inherit'], maxBuffer: 1 << 20 });
   if (r.status !== 0) throw new Error(`phase ${phase} failed (exit ${r.status})`);
   return JSON.parse(r.stdout.trim().split('\n').pop()!) as PhaseResult;
 }
