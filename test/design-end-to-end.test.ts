@@ -2,19 +2,7 @@
 import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, reduceCurve } from '@fractile/curves';
 import { describe, expect, it } from 'vitest';
 import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type TestGridCurve } from '../packages/pipeline/src/design/index.ts';
-import { normals, PROV, scipyLowerBound } from './design-fixtures.ts';
-
-/** Hollomon in total true strain, σ = K(εp + σ/E)^n, solved for σ by bisection (law, exact). */
-function hollomonAtPlastic(k: number, n: number, eMpa: number, ep: number): number {
-  let lo = 0;
-  let hi = k * Math.pow(ep + 1, n);
-  for (let i = 0; i < 200; i++) {
-    const mid = (lo + hi) / 2;
-    if (k * Math.pow(ep + mid / eMpa, n) > mid) lo = mid;
-    else hi = mid;
-  }
-  return (lo + hi) / 2;
-}
+import { hollomonAtPlastic, normals, PROV, scipyLowerBound } from './design-fixtures.ts';
 
 describe('records of a Hollomon population, reduced and designed', () => {
   // Source: REFERENCES.md, exact results of the laws — Hollomon σt = K·εt^n with maximum force at

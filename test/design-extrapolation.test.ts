@@ -8,21 +8,9 @@ import {
   type DesignOptions,
   type TestGridCurve,
 } from '../packages/pipeline/src/design/index.ts';
-import { grid, lawCurve, normals, PROV, scipyLowerBound } from './design-fixtures.ts';
+import { grid, hollomonAtPlastic, lawCurve, normals, PROV, scipyLowerBound } from './design-fixtures.ts';
 
 const opts = (o: Partial<DesignOptions> = {}): DesignOptions => ({ ...DEFAULT_DESIGN_OPTIONS, ...o });
-
-/** Hollomon in total true strain, σ = K(εp + σ/E)^n, solved for σ by bisection (law, exact). */
-function hollomonAtPlastic(k: number, n: number, eMpa: number, ep: number): number {
-  let lo = 0;
-  let hi = k * Math.pow(ep + 1, n);
-  for (let i = 0; i < 200; i++) {
-    const mid = (lo + hi) / 2;
-    if (k * Math.pow(ep + mid / eMpa, n) > mid) lo = mid;
-    else hi = mid;
-  }
-  return (lo + hi) / 2;
-}
 
 describe('extrapolation by a fitted law', () => {
   const g = grid(0, 0.2, 0.001);

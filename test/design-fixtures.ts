@@ -6,15 +6,19 @@
 import { execFileSync } from 'node:child_process';
 import type { TestGridCurve } from '../packages/pipeline/src/design/index.ts';
 
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+export { seededRandom as rng } from '@fractile/curves';
+import { seededRandom as rng } from '@fractile/curves';
+
+/** Hollomon in total true strain, σ = K(εp + σ/E)^n, solved for σ by bisection (law, exact). */
+export function hollomonAtPlastic(k: number, n: number, eMpa: number, ep: number): number {
+  let lo = 0;
+  let hi = k * Math.pow(ep + 1, n);
+  for (let i = 0; i < 200; i++) {
+    const mid = (lo + hi) / 2;
+    if (k * Math.pow(ep + mid / eMpa, n) > mid) lo = mid;
+    else hi = mid;
+  }
+  return (lo + hi) / 2;
 }
 
 export function normals(seed: number, count: number, mean: number, sd: number): number[] {

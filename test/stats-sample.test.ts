@@ -1,16 +1,9 @@
 // Correlated property sets by the Gaussian copula: marginals and rank correlations checked with
 // SciPy (scipy.stats.kstest, scipy.stats.spearmanr) on the generated sample.
-import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { sampleCorrelated, type CorrelatedSample, type FitResult } from '@fractile/stats';
+import { scipy } from './support/scipy.ts';
 
-/** Run a Python snippet with Debian's interpreter (it has SciPy); `input` arrives as `data`. */
-function scipy<T>(code: string, input: unknown = null): T {
-  const script = `import json, sys\nimport numpy as np\nfrom scipy import stats\ndata = json.loads(sys.stdin.read())\n${code}\n`;
-  const r = spawnSync('/usr/bin/python3', ['-c', script], { input: JSON.stringify(input), encoding: 'utf8', maxBuffer: 256 << 20 });
-  if (r.status !== 0) throw new Error(`python failed: ${r.stderr}`);
-  return JSON.parse(r.stdout) as T;
-}
 
 const marginals: Pick<FitResult, 'model' | 'params'>[] = [
   { model: 'normal', params: { mu: 520, sigma: 20 } },

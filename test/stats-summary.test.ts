@@ -1,6 +1,5 @@
 // Property summaries (contract JSON of the stats stage), Weibull tolerance limits, correlation
 // matrices and isotonic regression, checked against SciPy/NumPy, exact laws and simulation.
-import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import {
   correlationMatrices,
@@ -13,26 +12,10 @@ import {
   type CharacteristicValue,
   type PropertySummary,
 } from '@fractile/stats';
+import { scipy } from './support/scipy.ts';
+import { mulberry32 } from './support/random.ts';
 
-/** Run a Python snippet with Debian's interpreter (it has SciPy); `input` arrives as `data`. */
-function scipy<T>(code: string, input: unknown = null): T {
-  const script = `import json, sys\nimport numpy as np\nfrom scipy import stats\ndata = json.loads(sys.stdin.read())\n${code}\n`;
-  const r = spawnSync('/usr/bin/python3', ['-c', script], { input: JSON.stringify(input), encoding: 'utf8', maxBuffer: 256 << 20 });
-  if (r.status !== 0) throw new Error(`python failed: ${r.stderr}`);
-  return JSON.parse(r.stdout) as T;
-}
 
-/** Seeded uniform generator for the simulations (mulberry32, public-domain integer hash). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return (((t ^ (t >>> 14)) >>> 0) + 0.5) / 4294967296;
-  };
-}
 
 const rel = (a: number, b: number): number => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
 const find = (s: PropertySummary, method: CharacteristicValue['method'], coverage = 0.95, confidence: number | null = 0.75) =>

@@ -1,6 +1,5 @@
 // Tolerance factors, EN 1990 fractile factors, order-statistic sizes and the noncentral t
 // distribution, each checked against a source outside the project (named beside each check).
-import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import {
   en1990Kn,
@@ -14,14 +13,8 @@ import {
   orderStatisticRank,
   studentTQuantile,
 } from '@fractile/stats';
+import { scipy } from './support/scipy.ts';
 
-/** Run a Python snippet with Debian's interpreter (it has SciPy); `input` arrives as `data`. */
-function scipy<T>(code: string, input: unknown): T {
-  const script = `import json, sys\nimport numpy as np\nfrom scipy import stats\ndata = json.loads(sys.stdin.read())\n${code}\n`;
-  const r = spawnSync('/usr/bin/python3', ['-c', script], { input: JSON.stringify(input), encoding: 'utf8', maxBuffer: 64 << 20 });
-  if (r.status !== 0) throw new Error(`python failed: ${r.stderr}`);
-  return JSON.parse(r.stdout) as T;
-}
 
 describe('normalToleranceFactor', () => {
   // Source: REFERENCES.md, "One-sided normal tolerance factor k" — published tables of

@@ -13,8 +13,8 @@ import {
   type CurvesStageResult,
   type DriftResult,
   type GroupField,
+  hashOf,
 } from '@fractile/pipeline';
-import { hashOf } from '@fractile/pipeline';
 import type { ControlSeries, ReportData, ReportGroup, SampleCurve } from '@fractile/report';
 import { CODE_VERSION } from './version.ts';
 
@@ -59,8 +59,8 @@ function ewmaInUnits(m: DriftResult['series'][number]['monitor']): ControlSeries
 
 export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
   const db = store.db;
-  const rows = await loadProperties(db, {}, {});
   const all = await loadProperties(db, { includeFailed: true });
+  const rows = all.filter((r) => !r.failure);
   const groups = groupRows(rows, inp.by, NUMERIC_PROPERTIES);
   const valuesByGroup = new Map(groups.map((g) => [keyOf(g.key), g]));
   const curvesByGroup = new Map(inp.curves.curves.map((c) => [keyOf(c.group), c]));

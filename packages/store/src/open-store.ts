@@ -120,15 +120,7 @@ function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
         await db.destroy();
       },
     };
-    if (opts.migrate !== false) {
-      try {
-        await migrateToLatest(db);
-      } catch (e) {
-        await db.destroy();
-        throw e;
-      }
-    }
-    return store;
+    return migrated(store, opts);
   })();
 }
 
@@ -231,13 +223,17 @@ async function openServer(target: string, opts: OpenStoreOptions): Promise<Store
       await db.destroy();
     },
   };
-  if (opts.migrate !== false) {
-    try {
-      await migrateToLatest(db);
-    } catch (e) {
-      await db.destroy();
-      throw e;
-    }
+  return migrated(store, opts);
+}
+
+/** Applies pending migrations unless told not to; a failed migration closes the store. */
+async function migrated(store: Store, opts: OpenStoreOptions): Promise<Store> {
+  if (opts.migrate === false) return store;
+  try {
+    await migrateToLatest(store.db);
+  } catch (e) {
+    await store.db.destroy();
+    throw e;
   }
   return store;
 }
