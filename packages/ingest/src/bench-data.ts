@@ -6,6 +6,7 @@
  * d = 10 mm, L0 = 50 mm. Deterministic for a given seed (mulberry32 generator, written here
  * because it is four lines).
  */
+import { seededRandom } from '@fractile/curves';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { open } from 'node:fs/promises';
 import path from 'node:path';
@@ -18,16 +19,6 @@ export interface BenchDataOptions {
   offset?: number;
 }
 
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** The CSV text of one synthetic curve (time[s], force[kN], extension[mm]). */
 export function syntheticCurveCsv(points: number, rand: () => number): string {
@@ -52,7 +43,7 @@ export function syntheticCurveCsv(points: number, rand: () => number): string {
 
 /** Writes `dir/manifest.csv` and `dir/curves/T*.csv`; returns the manifest path. */
 export async function writeBenchData(dir: string, opts: BenchDataOptions): Promise<string> {
-  const rand = mulberry32(opts.seed ?? 1);
+  const rand = seededRandom(opts.seed ?? 1);
   const offset = opts.offset ?? 0;
   mkdirSync(path.join(dir, 'curves'), { recursive: true });
   const manifestPath = path.join(dir, 'manifest.csv');
