@@ -23,8 +23,9 @@ const OWN = /^@fractile\//;
 // Registry packages bundled in as well: plain JavaScript with no files of their own to find at
 // run time, and many small modules (@stdlib alone is hundreds) whose resolution and loading cost
 // more than the work of a read-only command. Everything else (the database engine and drivers,
-// piscina, vega, tsx) stays external and is loaded by Node as the sources would load it.
-const BUNDLED = /^(@stdlib\/|kysely$|kysely\/|simple-statistics$|arquero$|acorn$|cli-progress$|commander$|csv-parse($|\/))/;
+// piscina, vega, tsx) stays external and is loaded by Node as the sources would load it. kysely
+// and its PGlite dialect are bundled together, so that one copy of kysely is loaded.
+const BUNDLED = /^(@stdlib\/|kysely$|kysely\/|kysely-pglite-dialect$|simple-statistics$|arquero$|acorn$|cli-progress$|commander$|csv-parse($|\/))/;
 
 /** True when dist/ holds a build whose every input is unchanged (size and modification time). */
 export function isFresh() {
