@@ -14,7 +14,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { loadavg, tmpdir } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { generateBenchmarkSet } from '@fractile/seed-demo';
@@ -26,19 +26,20 @@ const bin = here('../packages/cli/bin/fractile.js');
 const PYTHON = '/usr/bin/python3';
 const TIME = '/usr/bin/time';
 
-interface Run { seconds: number; maxRssMb: number | null; stdout: string }
+interface Run { seconds: number; cpuSeconds: number | null; maxRssMb: number | null; stdout: string }
 
 /** Runs a command; wall time, and peak RSS when /usr/bin/time is there to report it. */
 function run(cmd: string, args: string[]): Run {
   const timed = existsSync(TIME);
   const t0 = performance.now();
   const r = timed
-    ? spawnSync(TIME, ['-f', 'maxrss_kb=%M', cmd, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 })
+    ? spawnSync(TIME, ['-f', 'maxrss_kb=%M cpu_s=%U+%S', cmd, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 })
     : spawnSync(cmd, args, { encoding: 'utf8', maxBuffer: 1 << 28 });
   const seconds = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} exited with ${r.status}: ${r.stderr.slice(-2000)}`);
   const rss = /maxrss_kb=(\d+)/.exec(r.stderr ?? '');
-  return { seconds, maxRssMb: rss ? Number(rss[1]) / 1024 : null, stdout: r.stdout };
+  const cpu = /cpu_s=([\d.]+)\+([\d.]+)/.exec(r.stderr ?? '');
+  return { seconds, cpuSeconds: cpu ? Number(cpu[1]) + Number(cpu[2]) : null, maxRssMb: rss ? Number(rss[1]) / 1024 : null, stdout: r.stdout };
 }
 
 const median = (xs: number[]) => { const s = [...xs].sort((a, b) => a - b); const m = s.length >> 1; return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2; };
@@ -56,7 +57,7 @@ console.log('fractile: ingest + reduce (four law fits) into a fresh embedded dat
 console.log('peer: /usr/bin/python3 scripts/peer-numpy.py (np.loadtxt per file, NumPy properties, scipy.optimize.curve_fit for the four laws)');
 console.log('rep   peer s   ingest s  reduce s  fractile s  fractile/peer  ingest MB  reduce MB');
 
-const rows: { peer: number; ingest: number; reduce: number; ingestMb: number | null; reduceMb: number | null }[] = [];
+const rows: { peer: number; ingest: number; reduce: number; ingestMb: number | null; reduceMb: number | null; peerCpu: number | null; fractileCpu: number | null }[] = [];
 let lastDb = '';
 let peerOut = '';
 const work = mkdtempSync(path.join(tmpdir(), 'fractile-bench-peer-'));
@@ -73,13 +74,17 @@ try {
     let p: Run, fr: ReturnType<typeof fractile>;
     if (rep % 2 === 0) { p = peer(); fr = fractile(); } else { fr = fractile(); p = peer(); }
     const total = fr.ingest.seconds + fr.reduce.seconds;
-    rows.push({ peer: p.seconds, ingest: fr.ingest.seconds, reduce: fr.reduce.seconds, ingestMb: fr.ingest.maxRssMb, reduceMb: fr.reduce.maxRssMb });
+    const fractileCpu = fr.ingest.cpuSeconds !== null && fr.reduce.cpuSeconds !== null ? fr.ingest.cpuSeconds + fr.reduce.cpuSeconds : null;
+    rows.push({ peer: p.seconds, ingest: fr.ingest.seconds, reduce: fr.reduce.seconds, ingestMb: fr.ingest.maxRssMb, reduceMb: fr.reduce.maxRssMb, peerCpu: p.cpuSeconds, fractileCpu });
     console.log(`${String(rep + 1).padStart(3)}  ${f(p.seconds)}   ${f(fr.ingest.seconds)}   ${f(fr.reduce.seconds)}    ${f(total)}       ${(total / p.seconds).toFixed(2).padStart(6)}×     ${mb(fr.ingest.maxRssMb)}     ${mb(fr.reduce.maxRssMb)}`);
     if (lastDb) rmSync(path.dirname(lastDb), { recursive: true, force: true });
     lastDb = db;
   }
   const total = rows.map((r) => r.ingest + r.reduce);
   console.log(`median ${f(median(rows.map((r) => r.peer)))}   ${f(median(rows.map((r) => r.ingest)))}   ${f(median(rows.map((r) => r.reduce)))}    ${f(median(total))}       ${median(rows.map((r, i) => total[i] / r.peer)).toFixed(2).padStart(6)}×`);
+  const cpu = rows.filter((r) => r.peerCpu !== null && r.fractileCpu !== null);
+  if (cpu.length) console.log(`CPU (user + system, all threads): peer ${median(cpu.map((r) => r.peerCpu!)).toFixed(2)} s, fractile ${median(cpu.map((r) => r.fractileCpu!)).toFixed(2)} s, fractile/peer ${median(cpu.map((r) => r.fractileCpu! / r.peerCpu!)).toFixed(2)}× (medians)`);
+  console.log(`load average ${loadavg().map((x) => x.toFixed(1)).join(' ')}`);
   console.log('goal (issue 11): at most 2× the peer, then at most 1×');
 
   // how far apart the two are on the same files (last repetition)
