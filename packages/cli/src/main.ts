@@ -1,16 +1,11 @@
 /**
- * The `fractile` command. Every file in ./commands exports `command: CommandModule`; they are
- * registered in their `order`, so a new command is a new file and nothing else.
+ * The `fractile` command: the commands of command-table.ts, registered in their `order`.
  */
 import { Command } from 'commander';
-import { readdirSync } from 'node:fs';
-import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import * as table from './command-table.ts';
 import type { CommandModule } from './context.ts';
 import { CliError, reportFailure } from './context.ts';
 import { CODE_VERSION } from './version.ts';
-
-const here = dirname(fileURLToPath(import.meta.url));
 
 export async function buildProgram(): Promise<Command> {
   const program = new Command('fractile');
@@ -24,14 +19,7 @@ export async function buildProgram(): Promise<Command> {
     .exitOverride((err) => process.exit(err.exitCode === 0 ? 0 : 2))
     .configureOutput({ writeOut: (s) => process.stdout.write(s), writeErr: (s) => process.stderr.write(s) });
 
-  const dir = join(here, 'commands');
-  const files = readdirSync(dir).filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'));
-  const modules: CommandModule[] = [];
-  for (const f of files) {
-    const mod = (await import(pathToFileURL(join(dir, f)).href)) as { command?: CommandModule };
-    if (mod.command) modules.push(mod.command);
-  }
-  modules.sort((a, b) => a.order - b.order);
+  const modules: CommandModule[] = Object.values(table).sort((a, b) => a.order - b.order);
   for (const m of modules) m.register(program);
   return program;
 }

@@ -1,22 +1,26 @@
 /**
- * Forward migrations with kysely's Migrator over the files in ./migrations (one file per step;
- * raw tables are 00xx, results tables 01xx). Files are imported dynamically, which works for .ts
- * under tsx and vitest. Unordered migrations are allowed so that a raw-table step added after a
- * results step has run still applies.
+ * Forward migrations with kysely's Migrator over the table of ./migrations/index.ts (one file per
+ * step, listed in that table; raw tables are 00xx, results tables 01xx). Unordered
+ * migrations are allowed so that a raw-table step added after a results step has run still
+ * applies.
  *
- * The provider is ours rather than kysely's FileMigrationProvider: that one calls `import()` from
- * inside node_modules, where vitest does not transform TypeScript, so .ts migrations would not
- * load in tests. Ours does the same listing and imports from this file.
+ * Opening an up-to-date database costs one query: the names kysely has recorded are compared
+ * with the table, and the Migrator (which creates its tables, takes its lock and reads the same
+ * list again, several statements) runs only when a name is missing or unknown. A static table
+ * rather than a folder scan: the compiled CLI imports no file at run time and needs no loader
+ * for TypeScript; migrate.test.ts checks that the table lists every file of the folder.
  */
-import { promises as fs } from 'node:fs';
-import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { pathToFileURL } from 'node:url';
-import { Migrator } from 'kysely';
+import { Migrator, sql } from 'kysely';
 import type { Kysely, Migration, MigrationProvider } from 'kysely';
+import { MIGRATIONS } from './migrations/index.ts';
 import type { Database } from './schema.ts';
 
+/** The folder of the migration files (the table must list each of them). */
 export const MIGRATION_FOLDER = fileURLToPath(new URL('./migrations', import.meta.url));
+
+/** kysely's default bookkeeping table */
+const MIGRATION_TABLE = 'kysely_migration';
 
 export class MigrationError extends Error {
   readonly code = 'migration_failed';
@@ -28,28 +32,30 @@ export class MigrationError extends Error {
   }
 }
 
-/** Every `NNNN-name.ts` (or .js) file of the folder, keyed by its name without extension. */
-export class FolderMigrationProvider implements MigrationProvider {
-  constructor(private readonly folder: string) {}
+/** The migrations of the table, keyed by name. */
+class TableMigrationProvider implements MigrationProvider {
   async getMigrations(): Promise<Record<string, Migration>> {
-    const out: Record<string, Migration> = {};
-    const files = (await fs.readdir(this.folder)).filter((f) => /\.(ts|js|mjs)$/.test(f) && !/\.d\.ts$/.test(f) && !/\.test\./.test(f)).sort();
-    for (const f of files) {
-      const mod = (await import(pathToFileURL(path.join(this.folder, f)).href)) as Partial<Migration> & { default?: Migration };
-      const m = mod.default && typeof mod.default.up === 'function' ? mod.default : mod;
-      if (typeof m.up === 'function') out[f.replace(/\.[^.]+$/, '')] = m as Migration;
-    }
-    return out;
+    return { ...MIGRATIONS };
   }
+}
+
+/** True when the database has recorded exactly the migrations of the table (one query). */
+async function upToDate(db: Kysely<Database>): Promise<boolean> {
+  let applied: string[];
+  try {
+    applied = (await sql<{ name: string }>`select name from ${sql.table(MIGRATION_TABLE)}`.execute(db)).rows.map((r) => r.name);
+  } catch {
+    return false; // no bookkeeping table yet: a new database
+  }
+  const known = Object.keys(MIGRATIONS);
+  const done = new Set(applied);
+  return applied.length === known.length && known.every((n) => done.has(n));
 }
 
 /** Applies every pending migration; returns the names applied. Throws MigrationError on failure. */
 export async function migrateToLatest(db: Kysely<Database>): Promise<string[]> {
-  const migrator = new Migrator({
-    db,
-    provider: new FolderMigrationProvider(MIGRATION_FOLDER),
-    allowUnorderedMigrations: true,
-  });
+  if (await upToDate(db)) return [];
+  const migrator = new Migrator({ db, provider: new TableMigrationProvider(), allowUnorderedMigrations: true, migrationTableName: MIGRATION_TABLE });
   const { error, results } = await migrator.migrateToLatest();
   if (error) {
     const failed = results?.find((r) => r.status === 'Error');

@@ -43,6 +43,10 @@ interface WorkItem {
   grade: string;
 }
 
+/** Set by the CLI build (packages/cli/build.mjs) to the compiled worker; undefined when run from the sources. */
+declare const FRACTILE_REDUCE_WORKER: string | undefined;
+const WORKER_URL = typeof FRACTILE_REDUCE_WORKER === 'string' ? FRACTILE_REDUCE_WORKER : new URL('./worker.mjs', import.meta.url).href;
+
 const num = (x: unknown): number | null => (x === null || x === undefined ? null : Number(x));
 const f64 = (x: unknown): Float64Array | null => (Array.isArray(x) ? Float64Array.from(x as number[]) : null);
 
@@ -130,7 +134,7 @@ export async function runReduce(store: Store, opts: ReduceStageOptions): Promise
   const unchanged = Number(current.n) - todo.length;
 
   const workers = Math.max(0, opts.workers ?? availableParallelism());
-  const pool = workers > 0 && todo.length >= 64 ? new Piscina({ filename: new URL('./worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers }) : null;
+  const pool = workers > 0 && todo.length >= 64 ? new Piscina({ filename: WORKER_URL, minThreads: workers, maxThreads: workers }) : null;
   const counts = { reduced: 0, failed: 0, given: 0 };
   const timings = { read: 0, compute: 0, write: 0 };
   const batchSize = opts.batchSize ?? 256;

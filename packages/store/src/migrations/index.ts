@@ -1,0 +1,13 @@
+/**
+ * Every migration, keyed by its file name without extension (the name kysely records); applied
+ * in name order. A new step is a file `NNNN-name.ts` here exporting `up` (and `down`), its import
+ * and its entry below (raw tables 00xx, results tables 01xx).
+ */
+import type { Migration } from 'kysely';
+import * as raw from './0001-raw.ts';
+import * as results from './0100-results.ts';
+
+export const MIGRATIONS: Record<string, Migration> = {
+  '0001-raw': raw,
+  '0100-results': results,
+};
