@@ -96,8 +96,8 @@ describe('report structure', async () => {
     rp.warnings = ['Anderson–Darling rejects <all> fits'];
     rp.compliance = { lower: 355, upper: null, n_below: 2, n_above: 0, fraction_outside: 0.05, tail_below: 0.01, tail_above: null, cpk: 1.9087 };
     const page = await renderReport(one);
-    // one row in the statistics table, one in the characteristic-value table
-    const [row, charRow] = [...page.matchAll(/<tr><td><span class="prop">Rp0\.2<\/span>[\s\S]*?<\/tr>/g)].map((m) => m[0]);
+    // one row in the statistics table, one in the design-value table, one in the characteristic-value table
+    const [row, designRow, charRow] = [...page.matchAll(/<tr><td><span class="prop">Rp0\.2<\/span>[\s\S]*?<\/tr>/g)].map((m) => m[0]);
     const cells = [...row.matchAll(/<td[^>]*>([\s\S]*?)<\/td>/g)].map((m) => m[1]);
     // n, mean, sd, CoV, min, p05, median (missing)
     expect(cells.slice(1, 8)).toEqual(['40', '412.3', '10.0', '2.4 %', '−1.3', cells[6], '–']);
@@ -108,6 +108,9 @@ describe('report structure', async () => {
     expect(row).toContain('<td class="num">1.91</td>');
     // the characteristic value of the headline method, one decimal for MPa, marked
     expect(charRow).toContain('<td class="num char headline">394.3</td>');
+    // and boxed as the design value with its method
+    expect(designRow).toContain('<td class="num char headline design">394.3</td>');
+    expect(designRow).toContain('tolerance normal (p 0.95, γ 0.75)');
     // −0.04 to one decimal reads 0.0, not −0.0
     expect(charRow).toContain('<td class="num char">0.0</td>');
     // stats warnings listed under the table, escaped

@@ -4,11 +4,10 @@ import { describe, expect, it } from 'vitest';
 import {
   correlationMatrices,
   DEFAULT_LEVELS,
-  fitWeibull,
   isotonicNonDecreasing,
+  priorVUpperBound,
   SEV_INVERSE_INFORMATION,
   summarizeProperty,
-  weibullLowerToleranceLimit,
   type CharacteristicValue,
   type PropertySummary,
 } from '@fractile/stats';
@@ -48,6 +47,8 @@ out = dict(mean=m, sd=sd, median=float(np.median(x)),
   os=float(xs[rank(0.95, 0.75) - 1]), osR=rank(0.95, 0.75),
   nBelow=int((x < L).sum()), nAbove=int((x > U).sum()),
   tailBelowNorm=float(stats.norm.cdf(L, *stats.norm.fit(x))), tailAboveNorm=float(stats.norm.sf(U, *stats.norm.fit(x))),
+  tailBelowLognorm=float(stats.lognorm.cdf(L, *stats.lognorm.fit(x, floc=0))), tailAboveLognorm=float(stats.lognorm.sf(U, *stats.lognorm.fit(x, floc=0))),
+  tailBelowWeibull=float(stats.weibull_min.cdf(L, c, 0, sc)), tailAboveWeibull=float(stats.weibull_min.sf(U, c, 0, sc)),
   cpk=min((m - L) / (3 * sd), (U - m) / (3 * sd)))
 print(json.dumps(out))`,
     { x, lower, upper },
@@ -102,16 +103,22 @@ print(json.dumps(out))`,
     expect(os99.note).toContain('299');
   });
 
-  it('compliance counts, model tail probabilities and Cpk', () => {
+  it('compliance on individual tests: counts, the headline model tail probabilities (scipy.stats) and Cpk', () => {
     const c = s.compliance!;
+    expect(c.basis).toBe('individual tests');
+    expect(c.n_tests).toBe(120);
     expect(c.n_below).toBe(ref.nBelow);
     expect(c.n_above).toBe(ref.nAbove);
     expect(c.fraction_outside).toBeCloseTo((ref.nBelow + ref.nAbove) / 120, 14);
     expect(rel(c.cpk!, ref.cpk)).toBeLessThan(1e-12);
-    // Normal data: the best fit should be normal here; its tails match scipy.stats.norm.
+    // Normal data: the best fit should be normal here (the model describing the data)
     expect(s.best_fit).toBe('normal');
-    expect(rel(c.tail_below!, ref.tailBelowNorm)).toBeLessThan(1e-10);
-    expect(rel(c.tail_above!, ref.tailAboveNorm)).toBeLessThan(1e-10);
+    // the tails come from the model the headline value came from
+    expect(`tolerance-${c.tail_model}`).toBe(s.headline!.method);
+    const name = { normal: 'Norm', lognormal: 'Lognorm', weibull: 'Weibull' }[c.tail_model!];
+    // (SciPy's Weibull fit is an optimizer's, good to about 1e-5 in the parameters, far more in a tail)
+    expect(rel(c.tail_below!, ref[`tailBelow${name}`])).toBeLessThan(1e-3);
+    expect(rel(c.tail_above!, ref[`tailAbove${name}`])).toBeLessThan(1e-3);
   });
 
   it('best fit follows the stated rule (lowest AIC)', () => {
@@ -136,7 +143,7 @@ describe('summarizeProperty for small and degenerate groups', () => {
     expect(s.warnings.join(' ')).toMatch(/no values/);
   });
   it('n = 2: no fits, no tolerance limits, EN 1990 V unknown needs n ≥ 3 (Table D1)', () => {
-    const s = summarizeProperty([350, 362], { lower: 340 });
+    const s = summarizeProperty([350, 362], { lower: 340, priorV: 0.03 });
     expect(s.sd).toBeCloseTo(Math.SQRT2 * 6, 12);
     expect(s.fits).toEqual([]);
     expect(find(s, 'en1990-v-unknown', 0.95, null).value).toBeNull();
@@ -145,12 +152,12 @@ describe('summarizeProperty for small and degenerate groups', () => {
     expect(s.compliance!.tail_below).toBeNull();
     expect(s.warnings.length).toBeGreaterThan(0);
   });
-  it('n = 10: tolerance limits present, Weibull tolerance and order statistics withheld with reasons', () => {
+  it('n = 10: exact tolerance limits present (Weibull too), order statistics withheld with a reason', () => {
     const x = [351, 362, 348, 370, 358, 344, 366, 355, 360, 349];
     const s = summarizeProperty(x);
     expect(find(s, 'tolerance-normal').value).not.toBeNull();
-    expect(find(s, 'tolerance-weibull').value).toBeNull();
-    expect(find(s, 'tolerance-weibull').note).toMatch(/n ≥ 20/);
+    expect(find(s, 'tolerance-weibull').value).not.toBeNull();
+    expect(find(s, 'tolerance-weibull').note).toMatch(/exact pivotal factor/);
     expect(find(s, 'order-statistic').value).toBeNull();
     expect(s.warnings.some((w) => /distribution-free/.test(w))).toBe(true);
     expect(s.fits.length).toBe(3);
@@ -179,9 +186,10 @@ describe('summarizeProperty for small and degenerate groups', () => {
   });
 });
 
-describe('Weibull tolerance limit (approximate, large-sample)', () => {
+describe('Weibull tolerance limit (exact, pivotal)', () => {
   it('inverse Fisher information of the extreme-value MLE agrees with numerical integration in SciPy', () => {
     // Source: scipy.integrate.quad of the score products of scipy.stats.gumbel_l (u = 0, b = 1), inverted by NumPy.
+    // (The large-sample law the exact factors tend to, test/stats-weibull-exact.test.ts.)
     const inv = scipy<number[][]>(
       `from scipy import integrate
 f = stats.gumbel_l.pdf
@@ -195,37 +203,74 @@ print(json.dumps(np.linalg.inv(I).tolist()))`,
     expect(SEV_INVERSE_INFORMATION.bb).toBeCloseTo(inv[1][1], 8);
   });
 
-  it('reaches its nominal confidence in simulation at n = 200, and errs on the liberal side at n = 30', () => {
-    // Exact law: the limit is below the true (1 − p)-quantile with probability ≈ γ.
-    const rnd = mulberry32(2024);
-    const shape = 12;
-    const scale = 400;
-    const runs = 2000;
-    const coverageRate = (n: number, p: number, g: number): number => {
-      const trueQ = scale * Math.pow(-Math.log(p), 1 / shape);
-      let hit = 0;
-      for (let r = 0; r < runs; r++) {
-        const x = Array.from({ length: n }, () => scale * Math.pow(-Math.log(rnd()), 1 / shape));
-        const f = fitWeibull(x)!;
-        if (weibullLowerToleranceLimit(f.params.shape, f.params.scale, n, p, g) <= trueQ) hit++;
-      }
-      return hit / runs;
-    };
-    // Binomial standard error ≤ 0.0097 at runs = 2000; the large-sample bias shrinks like 1/√n.
-    const big75 = coverageRate(200, 0.95, 0.75);
-    const big95 = coverageRate(200, 0.99, 0.95);
-    expect(Math.abs(big75 - 0.75)).toBeLessThan(0.045);
-    expect(Math.abs(big95 - 0.95)).toBeLessThan(0.03);
-    const small75 = coverageRate(30, 0.95, 0.75);
-    expect(small75).toBeGreaterThan(0.6);
-    expect(small75).toBeLessThan(0.78);
-  });
-
-  it('is marked approximate (large-sample) in the summary', () => {
+  it('is λ̂·exp(−t/k̂) with the MLEs of scipy.stats.weibull_min.fit and the tabulated factor', () => {
+    // Source: SciPy weibull_min.fit(x, floc=0) for the MLEs; the factor from the shipped table.
     const x = Array.from({ length: 60 }, (_, i) => 300 + ((i * 37) % 61));
     const c = find(summarizeProperty(x), 'tolerance-weibull');
-    expect(c.value).not.toBeNull();
-    expect(c.note).toMatch(/approximate \(large-sample\)/);
+    const [k, , lam] = scipy<number[]>('print(json.dumps([float(v) for v in stats.weibull_min.fit(np.array(data), floc=0)]))', x);
+    expect(c.note).toMatch(/exact pivotal factor/);
+    expect(rel(c.value!, lam * Math.exp(-c.factor! / k))).toBeLessThan(1e-6);
+  });
+});
+
+describe('headline rule (stated, fixed before the data)', () => {
+  const normal = scipy<number[]>('print(json.dumps(np.random.default_rng(3).normal(380, 22, 80).tolist()))');
+  it('is the lowest of the exact normal, lognormal and Weibull limits by default, and says so', () => {
+    const s = summarizeProperty(normal);
+    const limits = ['tolerance-normal', 'tolerance-lognormal', 'tolerance-weibull'].map((m) => find(s, m as CharacteristicValue['method']).value!);
+    expect(s.headline!.value).toBe(Math.min(...limits));
+    expect(s.headline_basis).toBe('lowest-model');
+    expect(s.headline_rule).toMatch(/^lowest-model: the lowest of the exact normal, lognormal and Weibull/);
+    expect(s.headline_rule).toContain('coverage 0.95, confidence 0.75');
+  });
+  it('takes the model the catalog names, and warns when Anderson–Darling rejects it', () => {
+    const s = summarizeProperty(normal, { headlineModel: 'lognormal' });
+    expect(s.headline).toEqual(find(s, 'tolerance-lognormal'));
+    expect(s.headline_basis).toBe('catalog-model');
+    expect(s.headline_rule).toMatch(/^catalog-model: the exact lognormal/);
+    // a bimodal sample: the named normal model is rejected
+    const bimodal = [...Array.from({ length: 40 }, (_, i) => 300 + (i % 5)), ...Array.from({ length: 40 }, (_, i) => 400 + (i % 5))];
+    const r = summarizeProperty(bimodal, { headlineModel: 'normal' });
+    expect(r.warnings.join(' ')).toMatch(/catalog's headline model \(normal\) is rejected/);
+  });
+  it('falls back to the distribution-free bound where every model is rejected and n allows it, else marks "no model fits"', () => {
+    const bimodal = (n: number) => Array.from({ length: n }, (_, i) => (i % 2 ? 300 : 400) + (i % 7));
+    const big = summarizeProperty(bimodal(80));
+    expect(big.fits.every((f) => f.p !== null && f.p < 0.05)).toBe(true);
+    expect(big.headline_basis).toBe('distribution-free-fallback');
+    expect(big.headline).toEqual(find(big, 'order-statistic'));
+    const small = summarizeProperty(bimodal(20));
+    expect(small.headline_basis).toBe('no-model-fits');
+    expect(small.headline!.note).toMatch(/^no model fits/);
+    expect(small.warnings.join(' ')).toMatch(/no model fits/);
+  });
+  it('gives no headline below n = 5', () => {
+    const s = summarizeProperty([350, 362, 355, 351]);
+    expect(s.headline).toBeNull();
+    expect(s.headline_basis).toBeNull();
+  });
+});
+
+describe('EN 1990 "V known" with the prior from the catalog', () => {
+  const x = scipy<number[]>('print(json.dumps(np.random.default_rng(8).normal(400, 36.8, 40).tolist()))'); // V ≈ 0.092
+  it('is not offered without a prior V', () => {
+    const c = find(summarizeProperty(x), 'en1990-v-known', 0.95, null);
+    expect(c.value).toBeNull();
+    expect(c.note).toMatch(/not offered: no prior V/);
+  });
+  it('is withheld with a warning when the sample V exceeds the prior beyond the χ² bound (scipy.stats.chi2)', () => {
+    // Source: scipy.stats.chi2.ppf for the bound V_prior·√(χ²_{n−1; 0.95}/(n − 1)).
+    const bound = scipy<number>('print(json.dumps(float(0.07 * np.sqrt(stats.chi2.ppf(0.95, 39) / 39))))');
+    expect(priorVUpperBound(0.07, 40, 0.95)).toBeCloseTo(bound, 10);
+    const s = summarizeProperty(x, { priorV: 0.07 });
+    expect(s.cov!).toBeGreaterThan(bound);
+    const c = find(s, 'en1990-v-known', 0.95, null);
+    expect(c.value).toBeNull();
+    expect(c.note).toMatch(/withheld/);
+    expect(s.warnings.join(' ')).toMatch(/V known" withheld/);
+    // a prior consistent with the sample gives the Annex D value m(1 − k_n V)
+    const ok = find(summarizeProperty(x, { priorV: 0.095 }), 'en1990-v-known', 0.95, null);
+    expect(ok.value).not.toBeNull();
   });
 });
 

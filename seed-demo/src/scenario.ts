@@ -41,6 +41,8 @@ export interface GradeDef {
   covHeat: number;
   covWithin: number;
   spec: SpecLimits;
+  /** per-property statistical settings of the catalog (an invented prior V from the fabricator's older records) */
+  properties?: Record<string, { prior_v?: number; headline_model?: string }>;
 }
 
 export const GRADES: readonly GradeDef[] = [
@@ -73,6 +75,7 @@ export const GRADES: readonly GradeDef[] = [
     covHeat: 0.03,
     covWithin: 0.035,
     spec: { yield_min_mpa: 690, yield_max_mpa: null, tensile_min_mpa: 770, tensile_max_mpa: 1040, yt_max: 0.95, elongation_min_pct: 10 },
+    properties: { yield_mpa: { prior_v: 0.05 } },
   },
   {
     label: 'FX-270A',
@@ -201,7 +204,7 @@ export function gradeDef(label: string): GradeDef {
 export function catalogJson(): { grades: Record<string, unknown> } {
   const grades: Record<string, unknown> = {};
   for (const g of GRADES) {
-    grades[g.label] = { family: g.family, yield_definition: g.yieldDefinition, rp_offset_pct: 0.2, rt_total_pct: 0.5, spec: { ...g.spec } };
+    grades[g.label] = { family: g.family, yield_definition: g.yieldDefinition, rp_offset_pct: 0.2, rt_total_pct: 0.5, spec: { ...g.spec }, ...(g.properties ? { properties: g.properties } : {}) };
   }
   return { grades };
 }

@@ -47,6 +47,17 @@ export function readFilter(o: Record<string, unknown>): PropertyFilter {
   };
 }
 
+/** --include-flagged / --include-excluded: bring back what the population rules leave out. */
+export function addPopulationOptions(cmd: Command): Command {
+  return cmd
+    .option('--include-flagged', 'keep values that a reduction flag makes unfit (default: left out and counted per flag)')
+    .option('--include-excluded', 'keep tests excluded with `fractile exclude` (default: left out and counted)');
+}
+
+export function readPopulation(o: Record<string, unknown>): { includeFlagged: boolean; includeExcluded: boolean } {
+  return { includeFlagged: Boolean(o.includeFlagged), includeExcluded: Boolean(o.includeExcluded) };
+}
+
 /** --property values checked against the known keys (NUMERIC_PROPERTIES of the pipeline). */
 export function readProperties(o: Record<string, unknown>, known: readonly string[], dflt?: PropertyKey[]): PropertyKey[] | undefined {
   const raw = o.property;

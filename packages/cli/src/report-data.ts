@@ -13,6 +13,7 @@ import {
   type CurvesStageResult,
   type DriftResult,
   type GroupField,
+  type PopulationOptions,
   hashOf,
 } from '@fractile/pipeline';
 import type { ControlSeries, ReportData, ReportGroup, SampleCurve } from '@fractile/report';
@@ -25,6 +26,8 @@ export interface ReportInputs {
   drift: DriftResult | null;
   catalog: Catalog | null;
   catalogSource: string | null;
+  /** the population options the stages ran with (default: excluded tests and flagged values left out) */
+  population?: PopulationOptions;
   reduceHash: string | null;
   generatedAt: string;
   title?: string;
@@ -59,8 +62,9 @@ function ewmaInUnits(m: DriftResult['series'][number]['monitor']): ControlSeries
 
 export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
   const db = store.db;
-  const all = await loadProperties(db, { includeFailed: true });
-  const rows = all.filter((r) => !r.failure);
+  const all = await loadProperties(db, { includeFailed: true }, { asReduced: true });
+  // the histograms show the population the statistics were computed on
+  const rows = await loadProperties(db, {}, inp.population ?? {});
   const groups = groupRows(rows, inp.by, NUMERIC_PROPERTIES);
   const valuesByGroup = new Map(groups.map((g) => [keyOf(g.key), g]));
   const curvesByGroup = new Map(inp.curves.curves.map((c) => [keyOf(c.group), c]));
@@ -129,6 +133,8 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
         rejected: rejections.length,
         failed: failed.length,
         flagged: flagged.length,
+        excluded: inp.aggregate.exclusions.length,
+        values_left_out: inp.aggregate.stats.reduce((a, s) => a + (s.left_out?.n ?? 0), 0),
       },
     },
     groups: reportGroups,
@@ -137,6 +143,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       rejections: rejections.map((r) => ({ file: r.file, line: r.line, column: r.col, code: r.code, message: r.message })),
       failed: failed.map((r) => ({ lab: r.lab, test_id: r.test_id, code: r.failure!.code, message: r.failure!.message })),
       flagged: flagged.map((r) => ({ lab: r.lab, test_id: r.test_id, flags: r.flags.filter((f) => !INFORMATIONAL_FLAGS.has(f)) })),
+      exclusions: inp.aggregate.exclusions.map((e) => ({ lab: e.lab, test_id: e.test_id, reason: e.reason, decided_by: e.decided_by, decided_at: e.decided_at })),
     },
   };
 }

@@ -76,7 +76,7 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
     log(`  reduce: ${reduced.reduced} reduced, ${reduced.given} summary-only, ${reduced.failed} failed, ${reduced.unchanged} unchanged (read ${reduced.timings.read.toFixed(1)} s, compute ${reduced.timings.compute.toFixed(1)} s, write ${reduced.timings.write.toFixed(1)} s)`);
   }
   const aggregate = await timed(timings, 'stats', () => runAggregate(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION }));
-  const curves = await timed(timings, 'curves', () => runCurves(store, { by: o.by, codeVersion: CODE_VERSION, generatedAt: o.generatedAt }));
+  const curves = await timed(timings, 'curves', () => runCurves(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION, generatedAt: o.generatedAt }));
   const drift = await timed(timings, 'drift', () => runDrift(store, { by: o.driftBy, catalog: o.catalog, codeVersion: CODE_VERSION }));
   const hashes = await currentReduceHashes(store.db);
   const reduceHash = hashes ? hashOf(hashes) : null;
@@ -89,7 +89,7 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
       writeFileSync(p, text);
       exports.push(p);
     };
-    const props = (await loadProperties(store.db, { includeFailed: true })).map(contractView);
+    const props = (await loadProperties(store.db, { includeFailed: true }, { asReduced: true })).map(contractView);
     put('properties.json', withCaution('properties', props, provenance));
     put('properties.csv', csvWithCaution(provenance, toCsv(props.map((r) => ({ ...r, flags: (r.flags as string[]).join(' '), failure: r.failure ? JSON.stringify(r.failure) : null })), [...PROPERTY_ROW_KEYS, 'given', 'failure'])));
     put('stats.json', withCaution('stats', aggregate.stats, { ...provenance, stats_run: aggregate.run }));

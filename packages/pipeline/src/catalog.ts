@@ -13,6 +13,15 @@
  *         "yield_min_mpa": 355, "yield_max_mpa": null,
  *         "tensile_min_mpa": 470, "tensile_max_mpa": 630,
  *         "yt_max": 0.87, "elongation_min_pct": 20
+ *       },
+ *       "properties": {                // optional, per property key of `fractile properties`
+ *         "yield_mpa": {
+ *           "prior_v": 0.07,           // coefficient of variation known from prior data: offers
+ *                                      // the EN 1990 "V known" value (never assumed otherwise)
+ *           "headline_model": "lognormal"  // normal | lognormal | weibull | order-statistic:
+ *                                      // the design value is that method's value (default: the
+ *                                      // lowest of the exact normal, lognormal, Weibull limits)
+ *         }
  *       }
  *     }
  *   }
@@ -21,6 +30,7 @@
  * A grade missing from the catalog is reduced with the defaults (steel, rp0.2) and has no limits.
  */
 import { readFileSync } from 'node:fs';
+import { NUMERIC_PROPERTIES, type PropertyKey } from './properties.ts';
 
 export type Family = 'steel' | 'aluminium' | 'other';
 export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
@@ -35,12 +45,25 @@ export interface SpecLimits {
   elongation_min_pct?: number | null;
 }
 
+export type HeadlineModelName = 'normal' | 'lognormal' | 'weibull' | 'order-statistic';
+export const HEADLINE_MODELS: readonly HeadlineModelName[] = ['normal', 'lognormal', 'weibull', 'order-statistic'];
+
+/** Statistical settings of one property of a grade, fixed before its data are seen. */
+export interface PropertyStatistics {
+  /** prior coefficient of variation for the EN 1990 "V known" value, in (0, 1) */
+  prior_v?: number;
+  /** the method the headline (design) value is taken from */
+  headline_model?: HeadlineModelName;
+}
+
 export interface GradeEntry {
   family: Family;
   yield_definition: YieldDefinition;
   rp_offset_pct: number;
   rt_total_pct: number;
   spec: SpecLimits;
+  /** per-property statistical settings (absent: none) */
+  properties?: Partial<Record<PropertyKey, PropertyStatistics>>;
 }
 
 export interface Catalog {
@@ -93,9 +116,33 @@ export function parseCatalog(raw: unknown, file = '(catalog)'): Catalog {
       if (x !== null && (typeof x !== 'number' || !Number.isFinite(x))) fail(`grade "${label}": spec.${k} must be a number or null`);
       spec[k as keyof SpecLimits] = x as number | null;
     }
-    out[label] = { family, yield_definition: yd, rp_offset_pct: num('rp_offset_pct', 0.2), rt_total_pct: num('rt_total_pct', 0.5), spec };
+    const entry: GradeEntry = { family, yield_definition: yd, rp_offset_pct: num('rp_offset_pct', 0.2), rt_total_pct: num('rt_total_pct', 0.5), spec };
+    if (g.properties !== undefined) entry.properties = parsePropertyStatistics(label, g.properties, fail);
+    out[label] = entry;
   }
   return { grades: out };
+}
+
+function parsePropertyStatistics(label: string, raw: unknown, fail: (msg: string) => never): Partial<Record<PropertyKey, PropertyStatistics>> {
+  if (!raw || typeof raw !== 'object' || Array.isArray(raw)) fail(`grade "${label}": properties must be an object keyed by property`);
+  const out: Partial<Record<PropertyKey, PropertyStatistics>> = {};
+  for (const [key, v] of Object.entries(raw as Record<string, unknown>)) {
+    if (!(NUMERIC_PROPERTIES as readonly string[]).includes(key)) fail(`grade "${label}": unknown property "${key}" (known: ${NUMERIC_PROPERTIES.join(', ')})`);
+    if (!v || typeof v !== 'object' || Array.isArray(v)) fail(`grade "${label}": properties.${key} must be an object`);
+    const e = v as Record<string, unknown>;
+    const stat: PropertyStatistics = {};
+    for (const k of Object.keys(e)) if (k !== 'prior_v' && k !== 'headline_model') fail(`grade "${label}": unknown key properties.${key}.${k} (known: prior_v, headline_model)`);
+    if (e.prior_v !== undefined) {
+      if (typeof e.prior_v !== 'number' || !(e.prior_v > 0 && e.prior_v < 1)) fail(`grade "${label}": properties.${key}.prior_v must be a number in (0, 1)`);
+      stat.prior_v = e.prior_v as number;
+    }
+    if (e.headline_model !== undefined) {
+      if (!HEADLINE_MODELS.includes(e.headline_model as HeadlineModelName)) fail(`grade "${label}": properties.${key}.headline_model must be one of ${HEADLINE_MODELS.join(', ')}`);
+      stat.headline_model = e.headline_model as HeadlineModelName;
+    }
+    out[key as PropertyKey] = stat;
+  }
+  return out;
 }
 
 /** Reads and validates a catalog file; a JSON syntax error names its line and column. */

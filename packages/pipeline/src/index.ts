@@ -12,3 +12,6 @@ export * from './design-stage.ts';
 export * from './design/index.ts';
 export * from './reduce/task.ts';
 export * from './sample-stage.ts';
+export * from './population.ts';
+export * from './flag-rules.ts';
+export { populationHash } from './population-hash.ts';

@@ -2,9 +2,15 @@
  * Per-test properties as the rest of the pipeline and the `properties` command see them: the
  * contract keys of the per-test table (percentages in percent, `null` where a value does not
  * apply), for every current test, from the results of the settings of the latest reduce run.
+ *
+ * `loadProperties` gives the statistics' population by default — excluded tests left out and
+ * flagged values withheld (population.ts); `asReduced` gives every test's values as reduced (the
+ * per-test listing and its export). `loadPopulation` also returns what was left out.
  */
 import { sql, type Kysely } from 'kysely';
-import type { Database } from '@fractile/store';
+import { activeExclusions, type Database } from '@fractile/store';
+import type { WithheldItem } from './flag-rules.ts';
+import { applyPopulationRules, type Population, type PopulationOptions } from './population.ts';
 import type { TestProperties } from '@fractile/curves';
 import type { Catalog } from './catalog.ts';
 import { ALGORITHM_VERSION } from './runs.ts';
@@ -36,6 +42,10 @@ export interface PropertyRow extends TestProperties {
   shape: string | null;
   test_pk: number;
   settings_hash: string;
+  /** the exclusion in force for this test, if any (population rows only) */
+  exclusion?: { reason: string; decided_by: string; decided_at: string } | null;
+  /** values left out of the statistics, each with the flags that withhold it (population rows only) */
+  withheld?: Partial<Record<WithheldItem, string[]>>;
   /** true stress on the reduce grid (null beyond the test's uniform strain); only with `withGrid` */
   grid_stress_mpa?: (number | null)[] | null;
   uniform_plastic_strain?: number | null;
@@ -53,9 +63,11 @@ export interface PropertyFilter {
   includeFailed?: boolean;
 }
 
-export interface LoadOptions {
+export interface LoadOptions extends PopulationOptions {
   /** also read each test's true stress on the common plastic-strain grid */
   withGrid?: boolean;
+  /** every test with its values as reduced: no exclusions, no flag rules (the per-test listing) */
+  asReduced?: boolean;
 }
 
 /** The grade → settings hash map of the latest reduce run, or null when nothing was reduced. */
@@ -82,7 +94,19 @@ export async function currentReduceHashes(db: Kysely<Database>): Promise<Record<
 
 const num = (x: unknown): number | null => (x === null || x === undefined ? null : Number(x));
 
+/** The statistics' population (default) or, with `asReduced`, every test as reduced. */
 export async function loadProperties(db: Kysely<Database>, filter: PropertyFilter = {}, load: LoadOptions = {}): Promise<PropertyRow[]> {
+  if (load.asReduced) return loadReducedRows(db, filter, load);
+  return (await loadPopulation(db, filter, load)).rows;
+}
+
+/** The population with what was left out of it (excluded tests, withheld values). */
+export async function loadPopulation(db: Kysely<Database>, filter: PropertyFilter = {}, load: LoadOptions = {}): Promise<Population> {
+  const rows = await loadReducedRows(db, filter, load);
+  return applyPopulationRules(rows, await activeExclusions(db), load);
+}
+
+async function loadReducedRows(db: Kysely<Database>, filter: PropertyFilter, load: LoadOptions): Promise<PropertyRow[]> {
   const hashes = await currentReduceHashes(db);
   if (!hashes) return [];
   const grades = Object.keys(hashes);

@@ -3,7 +3,7 @@
  * marginal (from the aggregate stage) joined by the group's Spearman matrix through a Gaussian
  * copula (see @fractile/stats sampleCorrelated). Seeded, so the same call gives the same sets.
  */
-import { sampleCorrelated } from '@fractile/stats';
+import { sampleCorrelated, type CopulaRepair } from '@fractile/stats';
 import type { AggregateResult } from './aggregate/stage.ts';
 import type { PropertyKey } from './properties.ts';
 
@@ -12,7 +12,8 @@ export interface SampleSet {
   properties: PropertyKey[];
   marginals: { property: PropertyKey; model: string; params: Record<string, number> }[];
   spearman: (number | null)[][];
-  shrinkage: number;
+  /** how a rank-correlation matrix that was not positive definite was repaired; null when none was needed */
+  copula_repair: CopulaRepair | null;
   seed: number;
   n: number;
   /** one row per sampled set, values in the properties' units */
@@ -42,18 +43,18 @@ export function sampleGroups(agg: Pick<AggregateResult, 'stats' | 'correlations'
     const idx = used.map((p) => corr.properties.indexOf(p));
     const spearman = idx.map((i) => idx.map((j) => corr.spearman[i][j]));
     if (used.length === 0) {
-      out.push({ group: corr.group, properties: [], marginals, spearman, shrinkage: 0, seed, n: 0, rows: [], warnings });
+      out.push({ group: corr.group, properties: [], marginals, spearman, copula_repair: null, seed, n: 0, rows: [], warnings });
       continue;
     }
     const r = sampleCorrelated(marginals.map((m) => ({ model: m.model as 'normal' | 'lognormal' | 'weibull', params: m.params })), spearman, n, seed);
     if ('code' in r) {
       warnings.push(`${r.code}: ${r.message}`);
-      out.push({ group: corr.group, properties: used, marginals, spearman, shrinkage: 0, seed, n: 0, rows: [], warnings });
+      out.push({ group: corr.group, properties: used, marginals, spearman, copula_repair: null, seed, n: 0, rows: [], warnings });
       continue;
     }
-    if (r.shrinkage > 0) warnings.push(`the rank-correlation matrix was shrunk by ${r.shrinkage} toward the identity to be positive definite`);
+    if (r.repair) warnings.push(`the rank-correlation matrix was not positive definite: replaced by the nearest correlation matrix (Higham 2002; largest change ${r.repair.max_change.toFixed(3)})`);
     const rows = Array.from({ length: n }, (_, k) => Object.fromEntries(used.map((p, i) => [p, r.columns[i][k]])));
-    out.push({ group: corr.group, properties: used, marginals, spearman, shrinkage: r.shrinkage, seed, n, rows, warnings });
+    out.push({ group: corr.group, properties: used, marginals, spearman, copula_repair: r.repair, seed, n, rows, warnings });
   }
   return out;
 }

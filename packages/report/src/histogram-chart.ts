@@ -40,6 +40,8 @@ export function headlineCharacteristic(property: ReportProperty): Characteristic
     if (named) return named;
   }
   if (usable(property.stats.headline)) return property.stats.headline;
+  // a stats stage that states its headline and has none (too few values): no value is put forward
+  if (property.stats.headline_rule !== undefined) return null;
   return withValue[0] ?? null;
 }
 

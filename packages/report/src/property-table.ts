@@ -18,6 +18,11 @@ function methodNote(c: CharacteristicValue): string {
   return parts.join(', ');
 }
 
+function leftOutText(l: ReportProperty['stats']['left_out']): string {
+  if (!l || l.n === 0) return l ? '0' : MISSING;
+  return `${formatInteger(l.n)} (${Object.entries(l.by_reason).map(([k, v]) => `${k.replace(/_/g, ' ')} ${formatInteger(v)}`).join(', ')})`;
+}
+
 function propertyCell(p: ReportProperty): CellInput {
   const label = propertyLabel(p.stats.property);
   return { html: `<span class="prop">${escapeHtml(label.name)}</span> <span class="unit">[${escapeHtml(label.unit)}]</span>` };
@@ -40,6 +45,7 @@ export function statisticsTable(properties: readonly ReportProperty[]): string {
     { header: 'n outside', note: 'below / above', numeric: true },
     { header: 'outside', note: 'fraction', numeric: true },
     { header: 'Cpk', numeric: true },
+    { header: 'left out', note: 'values, by reason' },
   ];
   const rows = properties.map((p): CellInput[] => {
     const s = p.stats;
@@ -63,6 +69,7 @@ export function statisticsTable(properties: readonly ReportProperty[]): string {
       c ? `${formatInteger(c.n_below)} / ${formatInteger(c.n_above)}` : MISSING,
       c ? formatPercent(c.fraction_outside, 1) : MISSING,
       c ? formatSignificant(c.cpk, 3) : MISSING,
+      leftOutText(s.left_out),
     ];
   });
   return htmlTable(columns, rows, { className: 'data props', emptyText: 'No property statistics for this group.' });
@@ -101,13 +108,37 @@ export function characteristicTable(properties: readonly ReportProperty[]): stri
   return htmlTable(columns, rows, { className: 'data chars', emptyText: 'No characteristic values for this group.' });
 }
 
-/** Both tables and the warnings of the stats stage. */
+/**
+ * The design value of each property — the headline the stats stage's rule chose — boxed, with its
+ * method and how the rule resolved; the rules are stated below the table.
+ */
+export function designValueTable(properties: readonly ReportProperty[]): string {
+  const columns: Column[] = [{ header: 'property', note: 'unit' }, { header: 'n', numeric: true }, { header: 'design value', numeric: true }, { header: 'method', note: 'coverage, confidence' }, { header: 'basis' }];
+  const rows = properties.map((p): CellInput[] => {
+    const h = headlineCharacteristic(p);
+    const d = propertyLabel(p.stats.property).decimals;
+    return [
+      propertyCell(p),
+      formatInteger(p.stats.n),
+      h ? { text: formatFixed(h.value, d), numeric: true, className: 'char headline design' } : MISSING,
+      h ? `${h.method.replace(/[_-]/g, ' ')} (${methodNote(h)})` : MISSING,
+      p.stats.headline_basis ? p.stats.headline_basis.replace(/-/g, ' ') : MISSING,
+    ];
+  });
+  const rules = [...new Set(properties.map((p) => p.stats.headline_rule).filter((r): r is string => typeof r === 'string'))];
+  return `${htmlTable(columns, rows, { className: 'data chars design', emptyText: 'No design values for this group.' })}${rules.length > 0 ? `\n<p class="lead rule">Rule, fixed before the data: ${rules.map((r) => escapeHtml(r)).join(' · ')}</p>` : ''}`;
+}
+
+/** The tables and the warnings of the stats stage. */
 export function propertyTable(properties: readonly ReportProperty[]): string {
   const warnings = properties
     .filter((p) => p.stats.warnings.length > 0)
     .map((p) => `<li><span class="prop">${escapeHtml(propertyLabel(p.stats.property).name)}</span>: ${escapeHtml(p.stats.warnings.join('; '))}</li>`);
   return `${statisticsTable(properties)}
+<h3>Design values</h3>
+<p class="lead">One design value per property (the headline): the value marked in each histogram and the one the characteristic curve starts from.</p>
+${designValueTable(properties)}
 <h3>Characteristic values</h3>
-<p class="lead">Lower-fractile estimates by method (p coverage, γ confidence); the value marked in each histogram is boxed.</p>
+<p class="lead">Lower-fractile estimates by method (p coverage, γ confidence): the boxed one is the design value, the others are alternatives.</p>
 ${characteristicTable(properties)}${warnings.length > 0 ? `\n<ul class="warnings">${warnings.join('')}</ul>` : ''}`;
 }

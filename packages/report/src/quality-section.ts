@@ -29,9 +29,18 @@ export function qualitySection(quality: ReportQuality, counts: ReportCounts, max
     quality.flagged.map((f) => [f.lab, { text: f.test_id, className: 'mono' }, { text: f.flags.join(', '), className: 'mono' }]),
     { maxRows, emptyText: 'No flagged tests.' },
   );
+  const exclusions = htmlTable(
+    [{ header: 'lab' }, { header: 'test' }, { header: 'reason' }, { header: 'by' }, { header: 'when' }],
+    (quality.exclusions ?? []).map((e) => [e.lab, { text: e.test_id, className: 'mono' }, e.reason, e.decided_by, { text: e.decided_at, className: 'mono' }]),
+    { maxRows, emptyText: 'No test is excluded.' },
+  );
+  const excluded = counts.excluded ?? quality.exclusions?.length ?? 0;
   return `<section class="block" id="quality">
 <h2>Data quality</h2>
-<p class="lead">${formatInteger(counts.rejected)} rejected inputs, ${formatInteger(counts.failed)} failed and ${formatInteger(counts.flagged)} flagged tests.</p>
+<p class="lead">${formatInteger(counts.rejected)} rejected inputs, ${formatInteger(counts.failed)} failed and ${formatInteger(counts.flagged)} flagged tests, ${formatInteger(excluded)} excluded tests${counts.values_left_out !== undefined ? `; ${formatInteger(counts.values_left_out)} values left out of the statistics (excluded tests and values a flag makes unfit; per property in the group tables)` : ''}.</p>
+<h3>Excluded tests</h3>
+<p class="lead">Left out of every statistic by an engineer's decision (<span class="mono">fractile exclude</span>; undone with <span class="mono">fractile include</span>).</p>
+${exclusions}
 <h3>Rejected input</h3>
 ${rejections}
 <h3>Failed tests</h3>

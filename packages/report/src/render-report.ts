@@ -46,6 +46,7 @@ function summarySection(meta: ReportMeta, data: ReportData): string {
     ['rejected inputs', c.rejected],
     ['failed tests', c.failed],
     ['flagged tests', c.flagged],
+    ...(c.excluded !== undefined ? [['excluded tests', c.excluded] as [string, number]] : []),
     ['groups', data.groups.length],
   ];
   const hashes = Object.entries(meta.settings_hashes).map(([k, v]) => [k, { text: v, className: 'mono' }]);

@@ -21,6 +21,10 @@ export interface ReportCounts {
   rejected: number;
   failed: number;
   flagged: number;
+  /** tests excluded by an engineer (with a recorded reason) */
+  excluded?: number;
+  /** per-test values left out of the statistics (excluded tests and flagged values), over all properties of the groups */
+  values_left_out?: number;
 }
 
 /** One grade of the catalog as the report lists it. */
@@ -135,8 +139,14 @@ export interface PropertyStats {
   /** Why the best fit was chosen, as the stats stage words it. */
   best_fit_rule?: string;
   characteristic: readonly CharacteristicValue[];
-  /** The characteristic value the stats stage puts forward (matching the best fit). */
+  /** The design value: the characteristic value the stats stage's headline rule chose. */
   headline?: CharacteristicValue | null;
+  /** The headline rule, fixed before the data, as the stats stage states it. */
+  headline_rule?: string;
+  /** How the rule resolved here (`lowest-model`, `catalog-model`, `distribution-free-fallback`, `no-model-fits`). */
+  headline_basis?: string | null;
+  /** Values left out of this property's statistics, by reason (`excluded` or a flag name). */
+  left_out?: { n: number; by_reason: Readonly<Record<string, number>> };
   compliance: Compliance | null;
   warnings: readonly string[];
 }
@@ -256,10 +266,22 @@ export interface FlaggedTestRow {
   flags: readonly string[];
 }
 
+/** A test left out of every statistic by an engineer's decision. */
+export interface ExclusionRow {
+  lab: string;
+  test_id: string;
+  reason: string;
+  decided_by: string;
+  /** ISO 8601 time of the decision */
+  decided_at: string;
+}
+
 export interface ReportQuality {
   rejections: readonly RejectionRow[];
   failed: readonly FailedTestRow[];
   flagged: readonly FlaggedTestRow[];
+  /** exclusions in force (absent: none recorded) */
+  exclusions?: readonly ExclusionRow[];
 }
 
 // ---------------------------------------------------------------------------------------------

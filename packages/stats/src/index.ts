@@ -12,32 +12,46 @@ export { normalLogCdf } from './special/normal.ts';
 export type { FitResult, ModelName } from './fit-types.ts';
 export { fitNormal, fitLognormal } from './fit-normal.ts';
 export { fitWeibull } from './fit-weibull.ts';
+export { weibullMleFromLogs } from './weibull-mle.ts';
 export { andersonDarlingStatistic, andersonDarlingPNormal, andersonDarlingPWeibull, WEIBULL_AD_TABLE } from './anderson-darling.ts';
-export { normalLowerToleranceLimit, lognormalLowerToleranceLimit, weibullLowerToleranceLimit, SEV_INVERSE_INFORMATION } from './tolerance-limit.ts';
+export { normalLowerToleranceLimit, lognormalLowerToleranceLimit, weibullLowerToleranceLimit } from './tolerance-limit.ts';
+export { SEV_INVERSE_INFORMATION } from './sev-information.ts';
+export { simulateWeibullPivots, pivotSeed } from './weibull-pivot.ts';
+export type { WeibullPivots } from './weibull-pivot.ts';
+export { weibullToleranceFactor, pivotFactor, WEIBULL_TABLE_SAMPLES, ON_DEMAND_SAMPLES } from './weibull-tolerance-factor.ts';
+export type { WeibullFactor } from './weibull-tolerance-factor.ts';
+export { WEIBULL_FACTOR_TABLE } from './weibull-factor-table.ts';
+export { summarizeProperty, DEFAULT_LEVELS } from './summarize-property.ts';
+export type { SummaryOptions, FitSummary, PropertySummary } from './summarize-property.ts';
 export {
-  summarizeProperty,
-  modelCdf,
-  DEFAULT_LEVELS,
-  DEFAULT_PRIOR_V,
-  BEST_FIT_RULE,
   MIN_N_FIT,
   MIN_N_AD_P,
   MIN_N_TOLERANCE,
   MIN_N_WEIBULL_TOLERANCE,
   MIN_N_EN1990_KNOWN,
   MIN_N_EN1990_UNKNOWN,
-} from './summarize-property.ts';
-export type {
-  CharacteristicMethod,
-  CharacteristicValue,
-  SummaryLevel,
-  SummaryOptions,
-  Compliance,
-  FitSummary,
-  PropertySummary,
-} from './summarize-property.ts';
+} from './characteristic-types.ts';
+export type { CharacteristicMethod, CharacteristicValue, SummaryLevel, Sample, HeadlineModel } from './characteristic-types.ts';
+export { describeSample } from './describe-sample.ts';
+export { bestFitByAic, BEST_FIT_RULE } from './best-fit.ts';
+export { modelCdf } from './model-cdf.ts';
+export { isRejected, REJECTION_LEVEL } from './model-rejection.ts';
+export { en1990VKnown, priorVUpperBound, DEFAULT_PRIOR_V_CHECK_LEVEL } from './en1990-v-known.ts';
+export { en1990VUnknown } from './en1990-v-unknown.ts';
+export { normalCharacteristic } from './characteristic-normal.ts';
+export { lognormalCharacteristic } from './characteristic-lognormal.ts';
+export { weibullCharacteristic } from './characteristic-weibull.ts';
+export { orderStatisticCharacteristic } from './characteristic-order-statistic.ts';
+export { chooseHeadline, headlineRuleText } from './headline-rule.ts';
+export type { HeadlineBasis, HeadlineChoice } from './headline-rule.ts';
+export { complianceOf } from './compliance.ts';
+export type { Compliance } from './compliance.ts';
 export { correlationMatrices, MIN_N_CORRELATION } from './correlation.ts';
 export type { CorrelationMatrices } from './correlation.ts';
 export { isotonicNonDecreasing } from './isotonic.ts';
 export { sampleCorrelated } from './sample-correlated.ts';
 export type { CorrelatedSample, SampleError } from './sample-correlated.ts';
+export { nearestCorrelation } from './nearest-correlation.ts';
+export type { NearestCorrelation, NearestCorrelationOptions } from './nearest-correlation.ts';
+export type { CopulaRepair } from './sample-correlated.ts';
+export type { WeibullFactorTable } from './weibull-tolerance-factor.ts';

@@ -6,8 +6,9 @@
  *    ρ = 2 sin(π ρ_S / 6), which gives exactly ρ_S as the Spearman correlation of the copula
  *    (Pearson 1907; Kruskal 1958).
  * 2. If that matrix is not positive definite (pairwise-complete estimates need not be), it is
- *    shrunk towards the identity, (1 − α)ρ + αI, with the smallest α in steps of 0.01 that admits
- *    a Cholesky factor; `shrinkage` reports α.
+ *    replaced by the nearest correlation matrix in the Frobenius norm (Higham 2002, alternating
+ *    projections; nearest-correlation.ts), which changes the consistent entries as little as
+ *    possible; `repair` reports the distance and the largest change.
  * 3. Standard normal vectors z = L·ε (ε from the seeded Box–Muller generator of @stdlib, on the
  *    32-bit Mersenne Twister) are mapped through Φ and each marginal's quantile function:
  *    normal μ + σz; lognormal exp(μ + σz); Weibull λ(−ln Φ(−z))^{1/k}.
@@ -18,14 +19,24 @@
  */
 import boxMuller from '@stdlib/random-base-box-muller';
 import type { FitResult } from './fit-types.ts';
+import { nearestCorrelation } from './nearest-correlation.ts';
 import { normalLogCdf } from './special/normal.ts';
+
+export interface CopulaRepair {
+  method: 'nearest correlation matrix (Higham 2002)';
+  /** Frobenius distance between the target copula correlation and the one used */
+  frobenius_distance: number;
+  /** largest change of one entry */
+  max_change: number;
+  iterations: number;
+}
 
 export interface CorrelatedSample {
   /** One column per marginal, in the order given. */
   columns: Float64Array[];
-  /** Shrinkage α applied to reach a positive-definite copula correlation (0 when none). */
-  shrinkage: number;
-  /** The normal-copula correlation used (after shrinkage). */
+  /** How the copula correlation was made positive definite; null when it was already. */
+  repair: CopulaRepair | null;
+  /** The normal-copula correlation used (after any repair). */
   copulaCorrelation: number[][];
 }
 
@@ -78,14 +89,14 @@ export function sampleCorrelated(
   const target = Array.from({ length: m }, (_, i) =>
     Array.from({ length: m }, (_, j) => (i === j ? 1 : 2 * Math.sin((Math.PI * (spearman[i][j] ?? 0)) / 6))),
   );
-  let alpha = 0;
-  let l: number[][] | null = null;
   let used = target;
-  for (let step = 0; step <= 100; step++) {
-    alpha = step / 100;
-    used = target.map((row, i) => row.map((v, j) => (i === j ? 1 : (1 - alpha) * v)));
+  let repair: CopulaRepair | null = null;
+  let l = cholesky(used);
+  if (!l) {
+    const near = nearestCorrelation(target);
+    used = near.matrix;
+    repair = { method: 'nearest correlation matrix (Higham 2002)', frobenius_distance: near.frobeniusDistance, max_change: near.maxChange, iterations: near.iterations };
     l = cholesky(used);
-    if (l) break;
   }
   if (!l) return { code: 'bad-size', message: 'copula correlation could not be made positive definite' };
   const s = ((Math.floor(Math.abs(seed)) % 4294967295) + 4294967295) % 4294967295 || 1;
@@ -101,5 +112,5 @@ export function sampleCorrelated(
       columns[i][r] = q[i](z);
     }
   }
-  return { columns, shrinkage: alpha, copulaCorrelation: used };
+  return { columns, repair, copulaCorrelation: used };
 }

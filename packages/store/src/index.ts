@@ -9,3 +9,5 @@ export { listTests } from './list-tests.ts';
 export type { TestFilter, TestListing } from './list-tests.ts';
 export { iterateCurrentTests } from './iterate-current-tests.ts';
 export type { CurrentTest, StoredCurve, StoredSummary, IterateOptions } from './iterate-current-tests.ts';
+export { resolveTestRefs, recordExclusions, activeExclusions, exclusionHistory } from './exclusions.ts';
+export type { TestRef, RefError, ExclusionDecision, ExclusionRecord } from './exclusions.ts';

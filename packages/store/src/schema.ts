@@ -127,6 +127,21 @@ export interface RejectionsTable {
   created_at: Generated<Date>;
 }
 
+/**
+ * An exclusion decision (or its undo): append-only; a test's state is its latest row
+ * (migrations/0010-exclusions.ts).
+ */
+export interface ExclusionsTable {
+  id: Generated<number>;
+  lab: string;
+  test_id: string;
+  test_row_id: number | null;
+  action: 'exclude' | 'include';
+  reason: string;
+  decided_by: string;
+  decided_at: Generated<Date>;
+}
+
 export interface RawTables {
   source_files: SourceFilesTable;
   ingest_runs: IngestRunsTable;
@@ -137,6 +152,7 @@ export interface RawTables {
   curves: CurvesTable;
   summary_records: SummaryRecordsTable;
   rejections: RejectionsTable;
+  exclusions: ExclusionsTable;
 }
 
 export interface Database extends RawTables, ResultTables {}

@@ -2,7 +2,7 @@
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
-import { addFilterOptions, probability, readFilter, withStore } from '../common-options.ts';
+import { addFilterOptions, addPopulationOptions, probability, readFilter, readPopulation, resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 const LAWS = ['swift', 'voce', 'hollomon'] as const;
@@ -10,7 +10,7 @@ const LAWS = ['swift', 'voce', 'hollomon'] as const;
 export const command: CommandModule = {
   order: 50,
   register(program: Command) {
-    addFilterOptions(
+    addPopulationOptions(addFilterOptions(
       program
         .command('curves')
         .description('median and characteristic true stress – plastic strain curves per group, with idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
@@ -21,8 +21,9 @@ export const command: CommandModule = {
         .option('--extrapolate <law>', 'extend past the valid range by a law fitted to the characteristic curve: swift, voce or hollomon')
         .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
         .option('--multilinear-points <n>', 'points of the multilinear idealization', '6')
+        .option('--catalog <file>', 'grade catalog for the headline settings of the characteristic yield (default: the catalog of the last reduce)')
         .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder'),
-    )
+    ))
       .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
         const { DESIGN_CAUTION, parseGroupBy, runCurves } = await import('@fractile/pipeline');
@@ -43,7 +44,8 @@ export const command: CommandModule = {
           ...(o.extrapolateTo !== undefined ? { extrapolateTo: Number(o.extrapolateTo) } : {}),
         };
         await withStore(g, async (store) => {
-          const r = await runCurves(store, { by: parseGroupBy(o.by as string), design, filter: readFilter(o), codeVersion: CODE_VERSION, generatedAt: new Date().toISOString() });
+          const catalog = await resolveCatalog(store.db, o.catalog);
+          const r = await runCurves(store, { by: parseGroupBy(o.by as string), design, filter: readFilter(o), catalog, population: readPopulation(o), codeVersion: CODE_VERSION, generatedAt: new Date().toISOString() });
           log(`curves: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.curves.length} groups${r.skipped.length ? `, ${r.skipped.length} left out` : ''}`);
           for (const s of r.skipped) log(`  left out ${JSON.stringify(s.group)}: ${s.reason}`);
           if (typeof o.out === 'string') log(`curves: wrote ${writeCurveFiles(o.out, r.curves).length} files under ${o.out}`);

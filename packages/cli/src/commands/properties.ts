@@ -16,7 +16,7 @@ export const command: CommandModule = {
         const { contractView, loadProperties, PROPERTY_ROW_KEYS } = await import('@fractile/pipeline');
         const g = globals(cmd);
         await withStore(g, async (store) => {
-          const rows = await loadProperties(store.db, { ...readFilter(o), includeFailed: Boolean(o.failed) });
+          const rows = await loadProperties(store.db, { ...readFilter(o), includeFailed: Boolean(o.failed) }, { asReduced: true });
           const view = rows.map(contractView);
           const flat = view.map((r) => ({ ...r, flags: (r.flags as string[]).join(' '), failure: r.failure ? `${(r.failure as { code: string }).code}: ${(r.failure as { message: string }).message}` : null }));
           const columns = [...PROPERTY_ROW_KEYS, 'given', 'failure'];

@@ -1,14 +1,17 @@
 /**
  * The aggregate stage: population statistics per group and property (summary, fits,
- * characteristic values, compliance, warnings) and correlation matrices per group, from the
- * current per-test results. Results are stored per run; the same settings on the same inputs
- * reuse the stored run instead of recomputing.
+ * characteristic values with the headline design value, compliance, warnings, and the counts of
+ * values left out by reason) and correlation matrices per group, from the population of the
+ * current per-test results (population.ts: excluded tests and flagged values left out unless
+ * asked for). Per-property settings (prior V, headline model) come from the grade catalog.
+ * Results are stored per run; the same settings on the same inputs reuse the stored run.
  */
 import type { Store } from '@fractile/store';
-import { correlationMatrices, summarizeProperty, type PropertySummary } from '@fractile/stats';
+import { correlationMatrices, summarizeProperty, type PropertySummary, type SummaryOptions } from '@fractile/stats';
 import { gradeSettings, type Catalog } from '../catalog.ts';
-import { hashOf } from '../hash.ts';
-import { loadProperties, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
+import { populationHash } from '../population-hash.ts';
+import { leftOutCounts, type LeftOut, type Population, type PopulationOptions } from '../population.ts';
+import { loadPopulation, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
 import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
@@ -23,14 +26,16 @@ export interface AggregateOptions {
   properties?: PropertyKey[];
   /** first level is the headline; default 0.95/0.75, 0.99/0.95, 0.90/0.95 */
   levels?: Level[];
-  /** prior coefficient of variation for the EN 1990 "V known" fractile */
+  /** prior coefficient of variation for the EN 1990 "V known" fractile of every property, overriding the catalog */
   priorV?: number;
   filter?: PropertyFilter;
+  /** which tests and values enter the statistics (default: excluded tests and flagged values left out) */
+  population?: PopulationOptions;
   catalog: Catalog | null;
   codeVersion: string;
 }
 
-export type StatsRow = { group: Record<string, string>; property: PropertyKey } & PropertySummary;
+export type StatsRow = { group: Record<string, string>; property: PropertyKey; left_out: LeftOut } & PropertySummary;
 
 export interface CorrelationResult {
   group: Record<string, string>;
@@ -46,6 +51,8 @@ export interface AggregateResult {
   stats: StatsRow[];
   correlations: CorrelationResult[];
   timings: Record<string, number>;
+  /** the exclusions in force when the statistics were computed */
+  exclusions: Population['exclusions'];
 }
 
 export const DEFAULT_LEVELS: Level[] = [
@@ -61,28 +68,55 @@ function groupGrade(key: Record<string, string>, rows: PropertyRow[], idx: numbe
   return g.size === 1 ? [...g][0] : null;
 }
 
-/** Pure part of the stage: statistics of already loaded rows. */
-export function aggregateRows(rows: PropertyRow[], opts: Omit<AggregateOptions, 'codeVersion'>): { stats: StatsRow[]; correlations: CorrelationResult[]; timings: Record<string, number> } {
+/**
+ * The summary options of one property of a group: the catalog's spec limits, prior V and
+ * headline model of the group's grade (none for a group spanning several grades), the levels.
+ * The design stage asks the same function, so its characteristic yield is the stats headline.
+ */
+export function propertySummaryOptions(property: PropertyKey, grade: string | null, opts: Pick<AggregateOptions, 'catalog' | 'levels' | 'priorV'>): SummaryOptions {
+  const entry = grade === null ? null : gradeSettings(opts.catalog, grade);
+  const { lower, upper } = limitsFor(property, entry ? entry.spec : null);
+  const stat = entry?.properties?.[property];
+  return { levels: opts.levels ?? DEFAULT_LEVELS, priorV: opts.priorV ?? stat?.prior_v ?? null, headlineModel: stat?.headline_model ?? null, lower, upper };
+}
+
+/** The grade of a group of rows, or null when they span several. */
+export function gradeOfGroup(key: Record<string, string>, rows: PropertyRow[], idx: number[]): string | null {
+  return groupGrade(key, rows, idx);
+}
+
+/** Pure part of the stage: statistics of an already loaded population (or of rows taken as they are). */
+export function aggregateRows(
+  input: PropertyRow[] | Pick<Population, 'rows' | 'excluded' | 'options'>,
+  opts: Omit<AggregateOptions, 'codeVersion'>,
+): { stats: StatsRow[]; correlations: CorrelationResult[]; timings: Record<string, number> } {
+  const pop = Array.isArray(input) ? { rows: input, excluded: [], options: { includeFlagged: false, includeExcluded: false } } : input;
+  const rows = pop.rows;
   const t0 = performance.now();
   const properties = opts.properties ?? [...NUMERIC_PROPERTIES];
   const groups = groupRows(rows, opts.by, properties);
+  const excludedByGroup = new Map<string, PropertyRow[]>();
+  for (const g of groupRows(pop.excluded, opts.by, [])) excludedByGroup.set(JSON.stringify(g.key), g.rows.map((i) => pop.excluded[i]));
   const t1 = performance.now();
   const stats: StatsRow[] = [];
   const correlations: CorrelationResult[] = [];
   for (const g of groups) {
     const grade = groupGrade(g.key, rows, g.rows);
-    const spec = grade === null ? null : gradeSettings(opts.catalog, grade).spec;
+    const members = g.rows.map((i) => rows[i]);
+    const excluded = excludedByGroup.get(JSON.stringify(g.key)) ?? [];
     for (const p of properties) {
       const values = g.columns[p].filter((v) => Number.isFinite(v));
-      if (values.length === 0) continue;
-      const { lower, upper } = limitsFor(p, spec);
-      const summary = summarizeProperty(values, { levels: opts.levels ?? DEFAULT_LEVELS, priorV: opts.priorV, lower, upper });
+      const leftOut = leftOutCounts(members, excluded, p, pop.options);
+      if (values.length === 0 && leftOut.n === 0) continue;
+      const summary = summarizeProperty(values, propertySummaryOptions(p, grade, opts));
       if (grade === null && (p === 'yield_mpa' || p === 'rm_mpa' || p === 'yt_ratio' || p === 'a_pct')) {
         summary.warnings.push('group spans several grades: no specification limits applied');
       }
-      stats.push({ group: g.key, property: p, ...summary });
+      if (leftOut.n > 0) summary.warnings.push(`${leftOut.n} value(s) left out: ${Object.entries(leftOut.by_reason).map(([k, v]) => `${k} ${v}`).join(', ')}`);
+      stats.push({ group: g.key, property: p, left_out: leftOut, ...summary });
     }
   }
+  stats.sort(statsOrder);
   const t2 = performance.now();
   for (const g of groups) {
     const cols: Record<string, number[]> = {};
@@ -96,7 +130,8 @@ export function aggregateRows(rows: PropertyRow[], opts: Omit<AggregateOptions, 
 export async function runAggregate(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
   const db = store.db;
   const t0 = performance.now();
-  const rows = await loadProperties(db, opts.filter);
+  const pop = await loadPopulation(db, opts.filter, opts.population);
+  const rows = pop.rows;
   const tLoad = performance.now() - t0;
   const settings = {
     algorithm_version: STAGE_VERSIONS.aggregate, by: opts.by,
@@ -104,25 +139,32 @@ export async function runAggregate(store: Store, opts: AggregateOptions): Promis
     levels: opts.levels ?? DEFAULT_LEVELS,
     priorV: opts.priorV ?? null,
     filter: opts.filter ?? {},
+    population: pop.options,
     spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
+    property_settings: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.properties ?? {}])) : null,
   };
   const settingsHash = await saveSettings(db, 'aggregate', settings);
-  const inputHash = hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`));
+  const inputHash = populationHash(pop);
   const done = await findDoneRun(db, 'aggregate', settingsHash, inputHash);
   if (done) {
     const stored = await loadAggregate(store, done.id);
-    return { run: done.id, reused: true, ...stored, timings: { load_ms: tLoad, reused_ms: performance.now() - t0 - tLoad } };
+    return { run: done.id, reused: true, ...stored, exclusions: pop.exclusions, timings: { load_ms: tLoad, reused_ms: performance.now() - t0 - tLoad } };
   }
   const run = await startRun(db, 'aggregate', settingsHash, inputHash, opts.codeVersion);
-  const { stats, correlations, timings } = aggregateRows(rows, opts);
+  const { stats, correlations, timings } = aggregateRows(pop, opts);
   const tw = performance.now();
   const values = [
     ...stats.map((s) => [run, 'aggregate', JSON.stringify(s.group), s.property, JSON.stringify(s)]),
     ...correlations.map((c) => [run, 'aggregate', JSON.stringify(c.group), '', JSON.stringify(c)]),
   ];
   await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], values);
-  await finishRun(db, run, { tests: rows.length, groups: correlations.length, rows: stats.length });
-  return { run, reused: false, stats, correlations, timings: { load_ms: tLoad, ...timings, store_ms: performance.now() - tw } };
+  await finishRun(db, run, { tests: rows.length, groups: correlations.length, rows: stats.length, excluded_tests: pop.excluded.length, values_left_out: stats.reduce((a, s) => a + s.left_out.n, 0) });
+  return { run, reused: false, stats, correlations, exclusions: pop.exclusions, timings: { load_ms: tLoad, ...timings, store_ms: performance.now() - tw } };
+}
+
+/** One order for computed and stored rows: by group, then property in NUMERIC_PROPERTIES order. */
+function statsOrder(a: StatsRow, b: StatsRow): number {
+  return JSON.stringify(a.group).localeCompare(JSON.stringify(b.group)) || NUMERIC_PROPERTIES.indexOf(a.property) - NUMERIC_PROPERTIES.indexOf(b.property);
 }
 
 /** Stored results of an aggregate run. */
@@ -131,8 +173,7 @@ export async function loadAggregate(store: Store, run: number): Promise<{ stats:
   const parse = (b: unknown) => (typeof b === 'string' ? JSON.parse(b) : b);
   const stats = rows.filter((r) => r.property !== '').map((r) => parse(r.body) as StatsRow);
   const correlations = rows.filter((r) => r.property === '').map((r) => parse(r.body) as CorrelationResult);
-  const order = (g: Record<string, string>) => JSON.stringify(g);
-  stats.sort((a, b) => order(a.group).localeCompare(order(b.group)) || NUMERIC_PROPERTIES.indexOf(a.property) - NUMERIC_PROPERTIES.indexOf(b.property));
-  correlations.sort((a, b) => order(a.group).localeCompare(order(b.group)));
+  stats.sort(statsOrder);
+  correlations.sort((a, b) => JSON.stringify(a.group).localeCompare(JSON.stringify(b.group)));
   return { stats, correlations };
 }
