@@ -5,9 +5,11 @@
  */
 import type { Migration } from 'kysely';
 import * as raw from './0001-raw.ts';
+import * as exclusions from './0010-exclusions.ts';
 import * as results from './0100-results.ts';
 
 export const MIGRATIONS: Record<string, Migration> = {
   '0001-raw': raw,
+  '0010-exclusions': exclusions,
   '0100-results': results,
 };
