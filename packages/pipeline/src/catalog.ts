@@ -13,7 +13,8 @@
  *         "yield_min_mpa": 355, "yield_max_mpa": null,
  *         "tensile_min_mpa": 470, "tensile_max_mpa": 630,
  *         "yt_max": 0.87, "elongation_min_pct": 20
- *       }
+ *       },
+ *       "max_fraction_below": 0.05     // drift: share of tests below a minimum that alarms (optional, default 0.05)
  *     }
  *   }
  * }
@@ -41,6 +42,8 @@ export interface GradeEntry {
   rp_offset_pct: number;
   rt_total_pct: number;
   spec: SpecLimits;
+  /** Share of tests below a specified minimum above which drift raises the capability alert. */
+  max_fraction_below?: number;
 }
 
 export interface Catalog {
@@ -93,7 +96,9 @@ export function parseCatalog(raw: unknown, file = '(catalog)'): Catalog {
       if (x !== null && (typeof x !== 'number' || !Number.isFinite(x))) fail(`grade "${label}": spec.${k} must be a number or null`);
       spec[k as keyof SpecLimits] = x as number | null;
     }
-    out[label] = { family, yield_definition: yd, rp_offset_pct: num('rp_offset_pct', 0.2), rt_total_pct: num('rt_total_pct', 0.5), spec };
+    const share = g.max_fraction_below;
+    if (share !== undefined && (typeof share !== 'number' || !(share > 0 && share < 1))) fail(`grade "${label}": max_fraction_below must be a number between 0 and 1`);
+    out[label] = { family, yield_definition: yd, rp_offset_pct: num('rp_offset_pct', 0.2), rt_total_pct: num('rt_total_pct', 0.5), spec, ...(share === undefined ? {} : { max_fraction_below: share as number }) };
   }
   return { grades: out };
 }

@@ -127,6 +127,16 @@ export interface RejectionsTable {
   created_at: Generated<Date>;
 }
 
+/** A user's acknowledgement, closing or reopening of a drift alert (appended, never changed). */
+export interface AlertActionsTable {
+  id: Generated<number>;
+  alert_id: string;
+  action: 'acknowledge' | 'close' | 'reopen';
+  actor: string;
+  note: string | null;
+  acted_at: Generated<Date>;
+}
+
 export interface RawTables {
   source_files: SourceFilesTable;
   ingest_runs: IngestRunsTable;
@@ -137,6 +147,7 @@ export interface RawTables {
   curves: CurvesTable;
   summary_records: SummaryRecordsTable;
   rejections: RejectionsTable;
+  alert_actions: AlertActionsTable;
 }
 
 export interface Database extends RawTables, ResultTables {}
