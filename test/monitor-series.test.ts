@@ -66,8 +66,8 @@ describe('alerts on one drifting supplier say when they would have rung', () => 
     expect(m.status).toBe('ok');
     expect(m.structure?.unit).toBe('tests');
     expect(m.structure?.baseline.tests).toBe(100);
-    expect(m.design).toMatchObject({ k: 0.5, arl0_tests: 2000, shewhart_arl0_tests: 5000, tests_per_point: 1, cusum_source: 'designed' });
-    expect(m.design?.h).toBeCloseTo(cusumDecisionInterval(0.5, 2000), 12);
+    expect(m.design).toMatchObject({ k: 0.5, arl0_tests: 1500, shewhart_arl0_tests: 5000, tests_per_point: 1, cusum_source: 'designed' });
+    expect(m.design?.h).toBeCloseTo(cusumDecisionInterval(0.5, 1500), 12);
     expect(m.points).toHaveLength(250);
     expect(m.points.slice(0, 5).every((p) => p.u === null)).toBe(true); // warm-up: five points in first
     expect(m.capability).toHaveLength(250);
@@ -154,7 +154,7 @@ describe('the chart fits the data: heat means where heats differ', () => {
     expect(m.structure!.point_sd).toBeLessThan(m.structure!.test_sd);
     // the CUSUM is designed for 1 SD of a test, in SDs of a heat mean, and its ARL counted in tests
     expect(m.design!.k).toBeCloseTo((m.structure!.test_sd / m.structure!.point_sd) / 2, 12);
-    expect(m.design!.h).toBeCloseTo(cusumDecisionInterval(m.design!.k, 2000 / 4), 12);
+    expect(m.design!.h).toBeCloseTo(cusumDecisionInterval(m.design!.k, 1500 / 4), 12);
   });
 });
 

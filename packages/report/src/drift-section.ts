@@ -80,7 +80,7 @@ export function driftTables(result: DriftResult, maxRows: number): string {
       c.df.map((x) => formatSignificant(x, 3)).join(', '),
       formatSignificant(c.p, 2),
       c.pairwise
-        .filter((p) => (p.ci ? p.ci[0] > 0 || p.ci[1] < 0 : (p.p_adjusted ?? p.p) < 0.05))
+        .filter((p) => (p.ci ? p.ci[0] > 0 || p.ci[1] < 0 : (p.p_adjusted ?? p.p ?? 1) < 0.05))
         .map((p) => `${p.a} − ${p.b}`)
         .join('; ') || 'none',
     ]),

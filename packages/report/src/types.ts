@@ -218,7 +218,8 @@ export interface PairComparison {
   a: string;
   b: string;
   method: string;
-  p: number;
+  /** null where not computed (Games–Howell beyond 10 groups). */
+  p: number | null;
   p_adjusted?: number;
   difference?: number;
   ci?: readonly [number, number];

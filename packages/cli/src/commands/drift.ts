@@ -25,7 +25,7 @@ export const command: CommandModule = {
         .option('--baseline <spec>', 'tests the chart structure (heat effect, SD of a test) is studied on: N (first N tests) or FROM..TO dates (default: the first 100 tests)')
         .option('--unit <unit>', 'points charted: auto (heat means where the baseline shows a heat effect), tests or heat-means', 'auto')
         .option('--per-test', 'the same as --unit tests')
-        .option('--arl0 <tests>', 'in-control average run length of each one-sided CUSUM, in tests (default 2000)')
+        .option('--arl0 <tests>', 'in-control average run length of each one-sided CUSUM, in tests (default 1500)')
         .option('--design-shift <sd>', 'shift the CUSUM is designed for, in SDs of one test (default 1)')
         .option('--cusum-k <k>', 'given CUSUM reference value, in SDs of a charted point (with --cusum-h; default: designed)')
         .option('--cusum-h <h>', 'given CUSUM decision interval, in SDs of a charted point (with --cusum-k)')

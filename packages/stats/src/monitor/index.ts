@@ -11,7 +11,7 @@ export { chartStructure, DEFAULT_HEAT_EFFECT_ALPHA } from './chart-structure.ts'
 export type { ChartStructure } from './chart-structure.ts';
 export { chartPoints } from './heat-subgroups.ts';
 export type { ChartPointInput } from './heat-subgroups.ts';
-export { createSelfStarting, selfStartingScore, selfStartingLimit } from './self-starting.ts';
+export { createSelfStarting, selfStartingScore, selfStartingLimit, limitFactor } from './self-starting.ts';
 export type { ChartUnit, Prediction, SelfStarting } from './self-starting.ts';
 export { siegmundArl, cusumDecisionInterval, shewhartLimit } from './cusum-design.ts';
 export { ewmaChart, ewmaHalfWidth, ewmaRunLength, DEFAULT_EWMA } from './ewma.ts';
@@ -27,7 +27,7 @@ export { rollingCapability } from './capability.ts';
 export type { CapabilityPoint } from './capability.ts';
 export { welchAnova } from './welch-anova.ts';
 export type { WelchAnovaResult } from './welch-anova.ts';
-export { gamesHowell } from './games-howell.ts';
+export { gamesHowell, studentizedRangeQuantile, MAX_GROUPS_FOR_P } from './games-howell.ts';
 export type { GamesHowellPair } from './games-howell.ts';
 export { kruskalWallis } from './kruskal-wallis.ts';
 export type { KruskalWallisResult } from './kruskal-wallis.ts';

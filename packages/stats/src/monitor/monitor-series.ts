@@ -15,7 +15,7 @@
  *  5. rolling capability of individual tests against the grade minimum (capability.ts);
  *  6. alerts, each with the date it would have rung (alerts.ts).
  * A point enters the running estimates unless the CUSUM or the Shewhart limit signals on it.
- * Defaults (stated): in-control ARL 2000 tests per direction for the CUSUM and 5000 for the
+ * Defaults (stated): in-control ARL 1500 tests per direction for the CUSUM and 5000 for the
  * Shewhart limit; design shift 1 SD; EWMA λ = 0.1, L = 2.814 (Lucas & Saccucci 1990), asymptotic
  * limits; 5 points before charting starts; heat-effect level 0.05; capability over 50 tests
  * (from 20 on), alarm above 5 % of tests below the minimum; change points: penalty 2·ln n,
@@ -32,7 +32,7 @@ import type { ChangePoint } from './change-point-uncertainty.ts';
 import { selectBaseline } from './baseline.ts';
 import { chartStructure, type ChartStructure } from './chart-structure.ts';
 import { chartPoints, type ChartPointInput } from './heat-subgroups.ts';
-import { createSelfStarting, selfStartingLimit, selfStartingScore } from './self-starting.ts';
+import { createSelfStarting, limitFactor, selfStartingScore } from './self-starting.ts';
 import { cusumDecisionInterval, shewhartLimit } from './cusum-design.ts';
 import { DEFAULT_EWMA, ewmaHalfWidth } from './ewma.ts';
 import { MR_D4 } from './moving-range.ts';
@@ -42,7 +42,7 @@ import { changeDetectionIndices, excludesZero } from './change-point-detection.t
 import { rollingCapability } from './capability.ts';
 import { DEFAULT_ALERT_MERGE_GAP, extremeIndex, flagEpisodes } from './alerts.ts';
 
-export const DEFAULT_ARL0_TESTS = 2000;
+export const DEFAULT_ARL0_TESTS = 1500;
 export const DEFAULT_SHEWHART_ARL0_TESTS = 5000;
 export const DEFAULT_DESIGN_SHIFT_SD = 1;
 export const DEFAULT_WARMUP = 5;
@@ -172,6 +172,7 @@ function chart(inputs: readonly ChartPointInput[], unit: ChartStructure['unit'],
   let mrSum = 0;
   let mrCount = 0;
   const ewmaP = { lambda: d.ewma.lambda, L: d.ewma.L };
+  const factor = limitFactor(d.shewhart_z);
   for (let i = 0; i < n; i++) {
     const p = inputs[i];
     const pred = ss.predict(p.size, p.heat);
@@ -204,8 +205,8 @@ function chart(inputs: readonly ChartPointInput[], unit: ChartStructure['unit'],
       Object.assign(point, {
         centre: pred.centre,
         scale: pred.scale,
-        lcl: selfStartingLimit(-d.shewhart_z, pred),
-        ucl: selfStartingLimit(d.shewhart_z, pred),
+        lcl: pred.centre - pred.scale * factor(pred.df),
+        ucl: pred.centre + pred.scale * factor(pred.df),
         u,
         ewma: pred.centre + pred.scale * w,
         ewmaLcl: pred.centre - pred.scale * hw,

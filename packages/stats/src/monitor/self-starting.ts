@@ -72,6 +72,24 @@ export function selfStartingLimit(u: number, p: Prediction): number {
   return p.centre + p.scale * tQuantile(normalCdf(u, 0, 1), p.df);
 }
 
+/**
+ * Half-width factor t_{df}⁻¹(Φ(u)) of the limit at score u, by degrees of freedom, computed once
+ * per df (the t quantile is iterative; degrees of freedom are whole numbers here): the limits are
+ * centre ± scale·factor(df).
+ */
+export function limitFactor(u: number): (df: number) => number {
+  const cache = new Map<number, number>();
+  const q = normalCdf(Math.abs(u), 0, 1);
+  return (df: number) => {
+    let f = cache.get(df);
+    if (f === undefined) {
+      f = tQuantile(q, df);
+      cache.set(df, f);
+    }
+    return f;
+  };
+}
+
 /** Hawkins' prediction for independent values from their count, sum and sum of squares (centred). */
 function independent(ref: number, m: number, sum: number, sumSq: number): Prediction | null {
   const mean = sum / m;

@@ -58,7 +58,7 @@ export interface MonitorOptions {
   unit?: 'auto' | 'tests' | 'heat-means';
   /** Level of the heat-effect F test (default 0.05). */
   heatEffectAlpha?: number;
-  /** In-control ARL of each one-sided CUSUM, in tests (default 2000). */
+  /** In-control ARL of each one-sided CUSUM, in tests (default 1500). */
   arl0Tests?: number;
   /** In-control ARL of each one-sided Shewhart limit, in tests (default 5000). */
   shewhartArl0Tests?: number;
