@@ -235,8 +235,9 @@ describe('supplier comparison chart', () => {
 
   it('draws a box per supplier and a Games–Howell interval per pair, red where it excludes zero', async () => {
     const svg = await renderComparisonChart(c, 'gh');
-    expect(svg).toContain('Northmill (n = 120)');
-    expect(svg).toContain('Harbor Rolling − Eastfield');
+    // labels on two lines: supplier and count; first and second supplier of a pair
+    expect(svg).toContain('<tspan>Northmill</tspan><tspan x="0" dy="12">n = 120</tspan>');
+    expect(svg).toContain('<tspan>Harbor Rolling</tspan><tspan x="0" dy="12">− Eastfield</tspan>');
     expect(svg).toContain('difference of means [MPa]');
     expect(svg).toContain('Games–Howell 95 % simultaneous intervals');
     // per supplier a box and a median tick (both drawn as rectangles)

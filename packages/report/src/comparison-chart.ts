@@ -13,10 +13,11 @@ import type { DriftComparison } from './types.ts';
 
 export function comparisonChartInput(c: DriftComparison): TemplateInput {
   const label = propertyLabel(c.property);
-  const boxes = Object.entries(c.summaries).map(([group, b]) => ({ group: `${group} (n = ${b.n})`, ...b }));
+  // '|' breaks a label into lines: supplier names are long
+  const boxes = Object.entries(c.summaries).map(([group, b]) => ({ group: `${group}|n = ${b.n}`, ...b }));
   const pairs = c.pairwise
     .filter((p) => p.ci && typeof p.difference === 'number')
-    .map((p) => ({ pair: `${p.a} − ${p.b}`, difference: p.difference as number, lo: p.ci![0], hi: p.ci![1], clear: p.ci![0] > 0 || p.ci![1] < 0 ? 'differs' : 'no difference shown' }));
+    .map((p) => ({ pair: `${p.a}|− ${p.b}`, difference: p.difference as number, lo: p.ci![0], hi: p.ci![1], clear: p.ci![0] > 0 || p.ci![1] < 0 ? 'differs' : 'no difference shown' }));
   const level = c.pairwise.find((p) => p.level !== undefined)?.level ?? 0.95;
   return {
     signals: {
@@ -30,7 +31,7 @@ export function comparisonChartInput(c: DriftComparison): TemplateInput {
 }
 
 export function comparisonChartTemplate(): TopLevelSpec {
-  const group = { field: 'group', type: 'nominal' as const, title: null, sort: null, axis: { labelAngle: -30, labelLimit: 220 } };
+  const group = { field: 'group', type: 'nominal' as const, title: null, sort: null, axis: { labelAngle: 0, labelLimit: 400, labelExpr: "split(datum.label, '|')" } };
   const y = (field: string) => ({ field, type: 'quantitative' as const, scale: { zero: false }, title: signalText('y_title') });
   const boxes = {
     width: 230,
@@ -44,7 +45,7 @@ export function comparisonChartTemplate(): TopLevelSpec {
     ],
   };
   const x = (field: string) => ({ field, type: 'quantitative' as const, title: signalText('diff_title'), scale: { zero: false } });
-  const pairY = { field: 'pair', type: 'nominal' as const, title: null, sort: null, axis: { labelLimit: 240 } };
+  const pairY = { field: 'pair', type: 'nominal' as const, title: null, sort: null, axis: { labelLimit: 400, labelExpr: "split(datum.label, '|')" } };
   const colour = { field: 'clear', type: 'nominal' as const, scale: { domain: ['differs', 'no difference shown'], range: [PALETTE.alert, PALETTE.median] }, legend: { title: null, orient: 'bottom' as const } };
   const intervals = {
     width: 210,

@@ -90,6 +90,20 @@ export function controlChartInput(series: ControlSeries, context: ControlChartCo
     .map((a) => ({ t: toTime(a.detected_on ?? a.first_date), text: a.rule }))
     .filter((a): a is { t: number; text: string } => a.t !== null)
     .slice(0, 8);
+  // y ranges from the points, the specification limits and the last (settled) limits: the first
+  // limits of a self-starting chart rest on a few points and would squash everything else
+  const domain = (values: number[]): [number, number] => {
+    const ok = values.filter(Number.isFinite);
+    if (ok.length === 0) return [0, 1];
+    const lo = Math.min(...ok);
+    const hi = Math.max(...ok);
+    const pad = 0.06 * (hi - lo || Math.abs(hi) || 1);
+    return [lo - pad, hi + pad];
+  };
+  const lastEwma = ewma[ewma.length - 1];
+  const yDomain = domain([...points.map((p) => p.value), ...specs.map((x) => x.y), ...(last ? [last.lcl, last.ucl] : [])]);
+  const ewmaDomain = domain([...ewma.map((e) => e.ewma), ...(lastEwma ? [lastEwma.lcl, lastEwma.ucl] : [])]);
+  const mrDomain = domain([0, ...mr.map((r) => r.mr), ...(mr.length && mr[mr.length - 1].ucl !== null ? [mr[mr.length - 1].ucl as number] : [])]);
   const h = series.cusum?.h;
   const ewmaNote = series.ewma ? ` · EWMA λ = ${series.ewma.lambda}, L = ${series.ewma.L}` : '';
   const cusumNote = series.cusum ? ` · CUSUM k = ${formatFixed(series.cusum.k, 2)}, h = ${formatFixed(series.cusum.h, 2)}` : '';
@@ -101,6 +115,9 @@ export function controlChartInput(series: ControlSeries, context: ControlChartCo
       mr_title: `moving range [${label.unit}]`,
       cusum_title: 'CUSUM [SD]',
       ewma_title: `EWMA of ${label.name} [${label.unit}]`,
+      y_domain: yDomain,
+      ewma_domain: ewmaDomain,
+      mr_domain: [0, mrDomain[1]],
     },
     data: {
       points,
@@ -120,9 +137,9 @@ export function controlChartInput(series: ControlSeries, context: ControlChartCo
 /** The structure shared by control charts of one width, with or without the lower panels. */
 export function controlChartTemplate(width: number, height: number, panels: boolean): TopLevelSpec {
   const x = { field: 't', type: 'temporal' as const, title: 'test date [UTC]', scale: { type: 'utc' as const }, axis: DATE_AXIS };
-  const q = (field: string, title?: string) => ({ field, type: 'quantitative' as const, scale: { zero: false }, ...(title ? { title: signalText(title) } : { title: null }) });
+  const q = (field: string, title?: string, domain = 'y_domain') => ({ field, type: 'quantitative' as const, scale: { zero: false, domain: { expr: domain } }, ...(title ? { title: signalText(title) } : { title: null }) });
   const step = (field: string, color: string, dash: number[], y: ReturnType<typeof q>) => ({
-    mark: { type: 'line' as const, color, strokeDash: dash, strokeWidth: 1.1, interpolate: 'step-after' as const },
+    mark: { type: 'line' as const, color, strokeDash: dash, strokeWidth: 1.1, interpolate: 'step-after' as const, clip: true },
     encoding: { x, y: { ...y, field } },
   });
   const vrules = (name: string, color: string, dash: number[]) => ({
@@ -183,8 +200,8 @@ export function controlChartTemplate(width: number, height: number, panels: bool
     height: 80,
     data: { name: 'mr_rows' },
     layer: [
-      { mark: { type: 'bar' as const, color: PALETTE.bars, width: 1.5 }, encoding: { x, y: { field: 'mr', type: 'quantitative' as const, title: signalText('mr_title') } } },
-      step('ucl', PALETTE.alert, [5, 3], q('ucl', 'mr_title')),
+      { mark: { type: 'bar' as const, color: PALETTE.bars, width: 1.5, clip: true }, encoding: { x, y: q('mr', 'mr_title', 'mr_domain') } },
+      step('ucl', PALETTE.alert, [5, 3], q('ucl', 'mr_title', 'mr_domain')),
     ],
   };
   const cusumY = { field: 'high', type: 'quantitative' as const, title: signalText('cusum_title') };
@@ -202,7 +219,7 @@ export function controlChartTemplate(width: number, height: number, panels: bool
       },
     ],
   };
-  const yEwma = q('ewma', 'ewma_title');
+  const yEwma = q('ewma', 'ewma_title', 'ewma_domain');
   const ewmaPanel = {
     width,
     height: 90,
@@ -215,7 +232,10 @@ export function controlChartTemplate(width: number, height: number, panels: bool
     ],
   };
   return {
-    params: ['title_text', 'subtitle_text', 'y_title', 'mr_title', 'cusum_title', 'ewma_title'].map((name) => ({ name, value: '' })),
+    params: [
+      ...['title_text', 'subtitle_text', 'y_title', 'mr_title', 'cusum_title', 'ewma_title'].map((name) => ({ name, value: '' })),
+      ...['y_domain', 'ewma_domain', 'mr_domain'].map((name) => ({ name, value: [0, 1] })),
+    ],
     title: { text: { expr: 'title_text' }, subtitle: signalText('subtitle_text'), subtitleColor: PALETTE.muted, subtitleFontSize: 10 },
     vconcat: panels ? [individuals, mrPanel, cusumPanel, ewmaPanel] : [individuals],
     spacing: 10,
