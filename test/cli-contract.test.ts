@@ -20,7 +20,7 @@ function fractile(...args: string[]): { status: number | null; stdout: string; s
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'drift', 'report', 'run', 'demo'];
+const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'drift', 'alerts', 'report', 'run', 'demo'];
 
 beforeAll(() => {
   demo = generateDemo({ outDir: join(dir, 'scenario'), tests: 60, seed: 11, pointsPerCurve: 500 });
@@ -77,8 +77,35 @@ describe('fractile command line', () => {
     expect(Object.keys(c[0])).toEqual(expect.arrayContaining(['group', 'n', 'plastic_strain', 'median_mpa', 'characteristic_mpa', 'valid_to_plastic_strain', 'extrapolated_from', 'idealized', 'provenance']));
     const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout) as Record<string, unknown>;
     expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
+    for (const a of d.alerts as Record<string, unknown>[]) {
+      for (const k of ['group', 'property', 'rule', 'first_date', 'magnitude', 'tests', 'id', 'detected_on', 'change_date', 'chart', 'state', 'new']) expect(a).toHaveProperty(k);
+      expect(a.first_date).toBe(a.detected_on);
+    }
     const csv = fractile('curves', '--db', db, '--format', 'csv');
     expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
+  });
+
+  it('lists alerts with their state, acknowledges and closes them by id, and says which are new', () => {
+    const first = fractile('drift', '--db', db, '--format', 'json');
+    expect(first.status, first.stderr).toBe(0);
+    expect(first.stderr).toMatch(/0 new since the last run/);
+    const list = JSON.parse(fractile('alerts', '--db', db, '--format', 'json').stdout) as { run: number; alerts: { id: string; state: string }[] };
+    expect(list.run).toBeGreaterThan(0);
+    const bad = fractile('alerts', 'ack', '0123456789ab', '--note', 'x', '--db', db);
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/no drift alert has the id 0123456789ab/);
+    expect(fractile('alerts', 'ack', 'zz', '--note', 'x', '--db', db).stderr).toMatch(/12 hex digits/);
+    if (list.alerts.length === 0) return;
+    const id = list.alerts[0].id;
+    expect(fractile('alerts', 'ack', id, '--db', db).stderr).toMatch(/needs --note/);
+    const ack = fractile('alerts', 'ack', id, '--note', 'asked the mill', '--by', 'QA desk', '--db', db);
+    expect(ack.status, ack.stderr).toBe(0);
+    const acked = JSON.parse(fractile('alerts', '--state', 'acknowledged', '--db', db, '--format', 'json').stdout) as { alerts: Record<string, unknown>[] };
+    expect(acked.alerts.map((a) => a.id)).toEqual([id]);
+    expect(acked.alerts[0]).toMatchObject({ state: 'acknowledged', state_by: 'QA desk', state_note: 'asked the mill' });
+    expect(fractile('alerts', 'close', id, '--by', 'QA desk', '--db', db).status).toBe(0);
+    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout) as { alerts: Record<string, unknown>[] };
+    expect(d.alerts.find((a) => a.id === id)).toMatchObject({ state: 'closed', new: false });
   });
 
   it('writes the report and the exports, each carrying the caution', () => {

@@ -13,7 +13,7 @@
 // exact instead of asymptotic EWMA limits) moves the in-control ARL by far more.
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_EWMA, createMonitorRandom, cusumRunLength, ewmaRunLength } from '../packages/stats/src/monitor/index.ts';
-import { scipy } from './monitor-scipy.ts';
+import { CUSUM_ONE_SIDED_PY, scipy } from './monitor-scipy.ts';
 
 function simulate(runs: number, one: () => number): { mean: number; se: number } {
   let s = 0;
@@ -75,12 +75,7 @@ def ewma_arl(lam, L, shift, m=801):
     up = (c[None,:]+w/2-(1-lam)*c[:,None])/lam; lo = (c[None,:]-w/2-(1-lam)*c[:,None])/lam
     P = stats.norm.cdf(up-shift) - stats.norm.cdf(lo-shift)
     return float(np.interp(0.0, c, np.linalg.solve(np.eye(m)-P, np.ones(m))))
-def cusum_one_sided(k, h, shift, m=400):
-    w = 2*h/(2*m-1); c = np.arange(m)*w
-    d = c[None,:]-c[:,None]+k-shift
-    P = stats.norm.cdf(d+w/2) - stats.norm.cdf(d-w/2)
-    P[:,0] = stats.norm.cdf(w/2-c+k-shift)
-    return float(np.linalg.solve(np.eye(m)-P, np.ones(m))[0])
+${CUSUM_ONE_SIDED_PY}
 out = {
   'ewma': [ewma_arl(q['lambda'], q['L'], q['shift']) for q in data['ewma']],
   'cusum': [1/(1/cusum_one_sided(q['k'], q['h'], q['shift'])+1/cusum_one_sided(q['k'], q['h'], -q['shift'])) for q in data['cusum']],

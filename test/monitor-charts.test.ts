@@ -1,16 +1,14 @@
-// Individuals/MR, EWMA and CUSUM charts: constants from the exact laws, recursions against
-// SciPy/numpy, and exact-arithmetic properties.
+// Moving-range constants, baseline selection, EWMA and CUSUM charts: constants from the exact
+// laws, recursions against SciPy/numpy, and exact-arithmetic properties.
 import { describe, expect, it } from 'vitest';
 import {
-  INDIVIDUALS_E2,
   MR_D2,
   MR_D4,
-  baselineStats,
   createMonitorRandom,
   cusumChart,
   ewmaChart,
   ewmaHalfWidth,
-  individualsLimits,
+  movingRanges,
   selectBaseline,
 } from '../packages/stats/src/monitor/index.ts';
 import type { SeriesPoint } from '../packages/stats/src/monitor/index.ts';
@@ -20,49 +18,33 @@ function points(values: number[], start = Date.UTC(2024, 2, 1)): SeriesPoint[] {
   return values.map((value, i) => ({ value, date: new Date(start + i * 86400000).toISOString().slice(0, 10), testId: `H${100 + i}` }));
 }
 
-describe('individuals and moving-range chart (Montgomery)', () => {
+describe('moving ranges (Montgomery) and the baseline', () => {
   it("Montgomery's constants follow from the normal law for ranges of 2", () => {
     // Exact law: X1 − X2 ~ N(0, 2σ²), so E|X1 − X2| = 2σ/√π (d2) and SD|X1 − X2| = σ√(2 − 4/π) (d3).
     const d2 = 2 / Math.sqrt(Math.PI);
     const d3 = Math.sqrt(2 - 4 / Math.PI);
     expect(Math.abs(MR_D2 - d2)).toBeLessThan(5e-4); // 1.128 as printed
-    expect(Math.abs(INDIVIDUALS_E2 - 3 / d2)).toBeLessThan(5e-3); // 2.66 as printed
     expect(Math.abs(MR_D4 - (1 + (3 * d3) / d2))).toBeLessThan(5e-4); // 3.267 as printed
   });
 
-  it('baseline mean, SD and MR̄ match numpy; limits are x̄ ± 2.66·MR̄ and 3.267·MR̄', () => {
+  it('moving ranges equal numpy.abs(numpy.diff(x)), the first one missing', () => {
     const rng = createMonitorRandom(3);
     const v = Array.from({ length: 45 }, () => 355 + 11 * rng.normal());
-    const b = baselineStats(v, 0, 29);
-    const ref = scipy<number[]>('x = np.asarray(data[:30]); out = [float(x.mean()), float(x.std(ddof=1)), float(np.abs(np.diff(x)).mean())]', v);
-    expect(b.mean).toBeCloseTo(ref[0], 10);
-    expect(b.sd).toBeCloseTo(ref[1], 10);
-    expect(b.mrBar).toBeCloseTo(ref[2], 10);
-    expect(b.sigma).toBeCloseTo(ref[2] / 1.128, 10);
-    const lim = individualsLimits(b);
-    expect(lim.ucl).toBeCloseTo(ref[0] + 2.66 * ref[2], 10);
-    expect(lim.lcl).toBeCloseTo(ref[0] - 2.66 * ref[2], 10);
-    expect(lim.mrUcl).toBeCloseTo(3.267 * ref[2], 10);
+    const ref = scipy<number[]>('out = np.abs(np.diff(np.asarray(data))).tolist()', v);
+    const mr = movingRanges(v);
+    expect(mr[0]).toBeNull();
+    ref.forEach((r, i) => expect(mr[i + 1]).toBeCloseTo(r, 12));
   });
 
-  it('baseline selection: first 30 by default, first N, a date range, a range capped by N', () => {
-    const p = points(Array.from({ length: 50 }, (_, i) => i));
-    expect(selectBaseline(p)).toEqual({ start: 0, end: 29 });
+  it('baseline selection: first 100 by default, first N, a date range, a range capped by N', () => {
+    const p = points(Array.from({ length: 150 }, (_, i) => i));
+    expect(selectBaseline(p)).toEqual({ start: 0, end: 99 });
     expect(selectBaseline(p.slice(0, 12))).toEqual({ start: 0, end: 11 });
     expect(selectBaseline(p, { firstN: 20 })).toEqual({ start: 0, end: 19 });
     expect(selectBaseline(p, { from: p[5].date, to: p[14].date })).toEqual({ start: 5, end: 14 });
     expect(selectBaseline(p, { from: p[5].date, firstN: 4 })).toEqual({ start: 5, end: 8 });
     expect(selectBaseline(p, { from: '2030-01-01' })).toBeNull();
     expect(selectBaseline([])).toBeNull();
-  });
-
-  it('a constant baseline has no sigma (the monitor reports it)', () => {
-    const b = baselineStats([5, 5, 5, 5], 0, 3);
-    expect(b.sigma).toBe(0);
-    expect(b.sigmaSource).toBe('none');
-    const one = baselineStats([5, 6, 5, 5], 0, 0);
-    expect(one.n).toBe(1);
-    expect(one.sigma).toBe(0);
   });
 });
 

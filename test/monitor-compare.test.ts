@@ -1,15 +1,16 @@
 // Supplier comparisons against SciPy 1.10 (Debian's /usr/bin/python3) and exact identities.
 import { describe, expect, it } from 'vitest';
 import {
+  boxSummary,
   compareGroups,
   compareGroupsChecked,
   createMonitorRandom,
+  gamesHowell,
+  studentizedRangeQuantile,
   holmAdjust,
   kruskalWallis,
   pairwiseDunn,
-  pairwiseWelch,
   welchAnova,
-  welchTTest,
 } from '../packages/stats/src/monitor/index.ts';
 import type { MonitorError } from '../packages/stats/src/monitor/index.ts';
 import { scipy } from './monitor-scipy.ts';
@@ -65,9 +66,6 @@ describe("Welch's ANOVA (Welch 1951)", () => {
       relClose(w.statistic, ref[i][0] ** 2, 1e-10);
       relClose(w.p, ref[i][1], 1e-8);
       expect(w.df[0]).toBe(1);
-      const t = ok(welchTTest(g.A, g.B));
-      relClose(t.statistic, ref[i][0], 1e-10);
-      relClose(t.p, ref[i][1], 1e-8);
     });
     // The third case has p ≈ 1e-9 or below: the upper tail keeps its relative precision.
     expect(ref[2][1]).toBeLessThan(1e-6);
@@ -169,20 +167,75 @@ for i in range(len(data)):
     expect(holmAdjust([])).toEqual([]);
   });
 
-  it('pairwise Welch t tests match scipy.stats.ttest_ind(equal_var=False), Holm over all pairs', () => {
-    const g = sample(40, [['A', 12, 400, 10], ['B', 15, 385, 20], ['C', 9, 402, 5]]);
-    const ref = scipy<[number, number][]>(
-      'out = [[float(r.statistic), float(r.pvalue)] for r in (stats.ttest_ind(data[a], data[b], equal_var=False) for a, b in [("A","B"),("A","C"),("B","C")])]',
-      g,
-    );
-    const { pairs, errors } = pairwiseWelch(g);
+});
+
+describe('Games–Howell pairwise intervals (Games & Howell 1976)', () => {
+  // Formula of Games & Howell (1976), J. Educational Statistics 1:113–125: d = x̄_a − x̄_b,
+  // SE = √(s_a²/n_a + s_b²/n_b), Welch–Satterthwaite ν, q = |d|/(SE/√2) against the studentized
+  // range of k means, interval d ± q_{0.95;k,ν}·SE/√2. Worked by hand (exact arithmetic):
+  // A = 10, 12, 14 (x̄ 12, s² 4); B = 15, 17, 19, 21 (x̄ 18, s² 20/3); C = 9 … 13 (x̄ 11, s² 2.5).
+  //  A−B: s²/n = 4/3 and 5/3, SE² = 3, ν = 9/(16/18 + 25/27) = 4.959184, q = 6/√1.5 = 4.898979
+  //  A−C: 4/3 and 1/2, SE² = 11/6, ν = (11/6)²/(16/18 + 1/16) = 3.532847, q = 1/√(11/12) = 1.044466
+  //  B−C: 5/3 and 1/2, SE² = 13/6, ν = (13/6)²/(25/27 + 1/16) = 4.749415, q = 7/√(13/12) = 6.725382
+  const g = { A: [10, 12, 14], B: [15, 17, 19, 21], C: [9, 10, 11, 12, 13] };
+  const hand = [
+    { a: 'A', b: 'B', d: -6, se2: 3, df: 4.959184, q: 4.898979 },
+    { a: 'A', b: 'C', d: 1, se2: 11 / 6, df: 3.532847, q: 1.044466 },
+    { a: 'B', b: 'C', d: 7, se2: 13 / 6, df: 4.749415, q: 6.725382 },
+  ];
+
+  it('differences, degrees of freedom and q equal the hand computation', () => {
+    const { pairs, errors } = gamesHowell(g);
     expect(errors).toEqual([]);
     pairs.forEach((p, i) => {
-      relClose(p.statistic, ref[i][0], 1e-10);
-      relClose(p.p, ref[i][1], 1e-8);
+      expect(`${p.a}-${p.b}`).toBe(`${hand[i].a}-${hand[i].b}`);
+      expect(p.difference).toBeCloseTo(hand[i].d, 12);
+      expect(p.df).toBeCloseTo(hand[i].df, 5);
+      expect(p.statistic).toBeCloseTo(hand[i].q, 5);
+      expect(p.method).toBe('games-howell');
     });
-    const holm = holmAdjust(ref.map((r) => r[1]));
-    pairs.forEach((p, i) => relClose(p.p_adjusted, holm[i], 1e-8));
+  });
+
+  it('intervals and p-values use the studentized range of scipy.stats.studentized_range', () => {
+    const ref = scipy<[number, number][]>('out = [[float(stats.studentized_range.ppf(0.95, 3, h["df"])), float(stats.studentized_range.sf(h["q"], 3, h["df"]))] for h in data]', hand);
+    const { pairs } = gamesHowell(g);
+    pairs.forEach((p, i) => {
+      const half = ref[i][0] * Math.sqrt(hand[i].se2 / 2);
+      expect(p.ci[0]).toBeCloseTo(hand[i].d - half, 2);
+      expect(p.ci[1]).toBeCloseTo(hand[i].d + half, 2);
+      expect(Math.abs((p.p as number) - ref[i][1])).toBeLessThan(2e-6);
+    });
+    // A−B and B−C differ at 95 %: their intervals exclude zero; A−C does not.
+    expect(pairs.map((p) => p.ci[0] > 0 || p.ci[1] < 0)).toEqual([true, false, true]);
+    // Tukey's table (from memory): q(0.95; 3, 20) = 3.578, the same distribution at integer ν.
+    const t = scipy<number>('out = float(stats.studentized_range.ppf(0.95, 3, 20))', null);
+    expect(t).toBeCloseTo(3.578, 3);
+  });
+
+  it('the quantile read between exact values of ν stays within 3e-4 (relative) of SciPy', () => {
+    const cases = [[3, 2.7], [3, 4.96], [4, 11.3], [6, 25.5], [12, 47], [40, 333], [40, 5000], [2, 9.5]];
+    const ref = scipy<number[]>('out = [float(stats.studentized_range.ppf(0.95, k, v)) for k, v in data]', cases);
+    cases.forEach(([k, v], i) => expect(Math.abs(studentizedRangeQuantile(0.95, k, v) - ref[i]) / ref[i]).toBeLessThan(3e-4));
+    // beyond ten groups the intervals come without p-values
+    const many = Object.fromEntries(Array.from({ length: 11 }, (_, j) => [`G${j}`, [1 + j, 2 + j, 4 + j]]));
+    expect(gamesHowell(many).pairs.every((p) => p.p === null && p.ci[0] < p.ci[1])).toBe(true);
+  });
+
+  it('degenerate pairs are reported, not computed', () => {
+    const r = gamesHowell({ A: [1, 2, 3], B: [4], C: [5, 5, 5], D: [6, 6, 6] });
+    expect(r.errors.map((e) => e.code)).toEqual(['group-too-small', 'group-too-small', 'group-too-small', 'group-no-spread']);
+    expect(r.pairs.map((p) => `${p.a}-${p.b}`)).toEqual(['A-C', 'A-D']);
+  });
+});
+
+describe('box-plot numbers', () => {
+  it('quartiles as numpy.percentile, whiskers by the 1.5 × IQR rule', () => {
+    const v = [3, 1, 4, 1, 5, 9, 2, 6, 5, 3, 5, 40];
+    const ref = scipy<number[]>('x = np.asarray(data, float); q1, q2, q3 = np.percentile(x, [25, 50, 75]); i = q3 - q1; w = x[(x >= q1 - 1.5*i) & (x <= q3 + 1.5*i)]; out = [q1, q2, q3, float(w.min()), float(w.max()), float(x.mean())]', v);
+    const b = boxSummary(v);
+    [b.q1, b.median, b.q3, b.whisker_low, b.whisker_high, b.mean].forEach((x, i) => expect(x).toBeCloseTo(ref[i], 12));
+    expect(b.max).toBe(40);
+    expect(b.whisker_high).toBe(9); // 40 lies beyond the whisker
   });
 });
 
@@ -192,7 +245,10 @@ describe('compareGroups', () => {
     const c = compareGroups(g);
     expect(c.map((x) => x.test)).toEqual(['welch-anova', 'kruskal-wallis']);
     expect(c[0].pairwise).toHaveLength(3);
-    expect(c[1].pairwise.every((p) => p.method === 'dunn-holm' && p.p_adjusted >= p.p)).toBe(true);
+    expect(c[0].pairwise.every((p) => p.method === 'games-howell')).toBe(true);
+    expect(c[1].pairwise.every((p) => p.method === 'dunn-holm' && 'p_adjusted' in p && p.p_adjusted >= p.p)).toBe(true);
+    expect(Object.keys(c[0].summaries)).toEqual(['North Mill', 'Harbour Steel', 'Eastfield']);
+    expect(c[0].summaries['Eastfield'].n).toBe(25);
     const bad = compareGroupsChecked({ A: [1, 2, 3], B: [5, 5, 5] });
     expect(bad.comparisons.map((x) => x.test)).toEqual(['kruskal-wallis']);
     expect(bad.errors[0]).toMatchObject({ code: 'group-no-spread' });

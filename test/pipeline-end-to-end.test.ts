@@ -133,6 +133,32 @@ describe.each(testDatabases())('demo scenario end to end on $name', (tdb) => {
     expect(onDrifting.length).toBeGreaterThan(0);
     // the alarm comes after the drift starts (the generator states when)
     expect(onDrifting.some((a) => a.first_date >= demo.driftFrom)).toBe(true);
-    for (const a of d.alerts) for (const k of ['group', 'property', 'rule', 'first_date', 'magnitude', 'tests']) expect(a).toHaveProperty(k);
+    for (const a of d.alerts) {
+      for (const k of ['group', 'property', 'rule', 'first_date', 'magnitude', 'tests', 'id', 'detected_on', 'change_date', 'chart', 'state', 'new']) expect(a).toHaveProperty(k);
+      // first_date means exactly the date the alert would have rung
+      expect(a.first_date).toBe(a.detected_on);
+      if (a.change_date !== null) expect(a.change_date <= a.detected_on).toBe(true);
+    }
+    expect(d.alerts.every((a) => a.state === 'open' && a.new)).toBe(true);
+  });
+
+  it('keeps the state of alerts: a rerun reports nothing new, an acknowledgement and a closing stick', async () => {
+    const { recordAlertAction, AlertStateError } = await import('@fractile/pipeline');
+    const again = await runDrift(store, { by: ['supplier', 'grade'], catalog, codeVersion: 'test' });
+    expect(again.reused).toBe(true);
+    expect(again.new_alerts).toBe(0);
+    expect(again.alerts.some((a) => a.new)).toBe(false);
+    const [first, second] = again.alerts;
+    await recordAlertAction(store.db, [first.id], 'acknowledge', 'R. Okafor', 'mill asked for its heat records');
+    if (second) await recordAlertAction(store.db, [second.id], 'close', 'R. Okafor', null);
+    await expect(recordAlertAction(store.db, ['000000000000'], 'close', 'R. Okafor', null)).rejects.toBeInstanceOf(AlertStateError);
+    // a later run shows each alert with the state recorded under its id
+    const third = await runDrift(store, { by: ['supplier', 'grade'], catalog, codeVersion: 'test' });
+    const a = third.alerts.find((x) => x.id === first.id)!;
+    expect(a).toMatchObject({ state: 'acknowledged', state_by: 'R. Okafor', state_note: 'mill asked for its heat records', new: false });
+    if (second) expect(third.alerts.find((x) => x.id === second.id)?.state).toBe('closed');
+    await recordAlertAction(store.db, [first.id], 'reopen', 'J. Marsh', 'came back');
+    const fourth = await runDrift(store, { by: ['supplier', 'grade'], catalog, codeVersion: 'test' });
+    expect(fourth.alerts.find((x) => x.id === first.id)).toMatchObject({ state: 'open', state_by: 'J. Marsh' });
   });
 });

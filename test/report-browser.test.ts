@@ -55,8 +55,8 @@ describe('report in a browser', () => {
           return { w: r.width, h: r.height, visible: style.visibility !== 'hidden' && style.display !== 'none', paths: s.querySelectorAll('path, line, text').length };
         }),
       );
-      // 3 groups × (curves + 6 histograms) + 4 control charts
-      expect(boxes.length).toBe(3 * 7 + 4);
+      // 3 groups × (curves + 6 histograms) + 4 control charts + 1 supplier comparison
+      expect(boxes.length).toBe(3 * 7 + 4 + 1);
       for (const b of boxes) {
         expect(b.visible).toBe(true);
         expect(b.w).toBeGreaterThan(150);

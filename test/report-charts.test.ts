@@ -10,6 +10,7 @@ import {
   histogramBins,
   histogramInput,
   renderControlChart,
+  renderComparisonChart,
   renderCurvesChart,
   renderHistogram,
   type DistributionFit,
@@ -191,27 +192,60 @@ describe('control chart', () => {
   const series = data.drift!.series[0];
   const alerts = data.drift!.result.alerts;
 
-  it('marks the points named by alerts and those outside the limits, and labels the limits', async () => {
+  it('marks the points named by alerts and those outside their limits, labels the limits and draws MR, CUSUM and EWMA', async () => {
     expect(alerts.length).toBe(1);
     const named = new Set(alerts[0].tests.map((t) => (typeof t === 'string' ? t : t.test_id)));
-    const outside = series.points.filter((p) => !named.has(p.test_id) && (p.value > series.ucl || p.value < series.lcl)).length;
+    const outside = series.points.filter((p) => !named.has(p.test_id) && ((p.ucl !== null && p.value > p.ucl) || (p.lcl !== null && p.value < p.lcl))).length;
     const svg = await renderControlChart(series, data.drift!.result, { idPrefix: 'cc' });
     // data points sit in "role-mark" groups; legend symbols in "role-legend-symbol" ones
     const count = (colour: string) => marks(svg, 'symbol').filter((p) => p.includes(`fill="${colour}"`)).length;
-    const ewma = series.ewma!;
-    const ewmaOutside = ewma.values.filter((v, i) => v > (ewma.ucl as number[])[i] || v < (ewma.lcl as number[])[i]).length;
+    const ewmaOutside = series.points.filter((p) => p.ewma! > p.ewma_ucl! || p.ewma! < p.ewma_lcl!).length;
     const alerted = series.points.filter((p) => named.has(p.test_id)).length;
     expect(alerted).toBe(named.size);
     // red: alert points in the individuals panel and EWMA points beyond their limits
     expect(count('#c0262d')).toBe(alerted + ewmaOutside);
     expect(count('#e08a1e')).toBe(outside);
-    expect(svg).toContain(`UCL ${series.ucl.toFixed(1)}`);
-    expect(svg).toContain(`LCL ${series.lcl.toFixed(1)}`);
+    const last = series.points[series.points.length - 1];
+    expect(svg).toContain(`UCL ${last.ucl!.toFixed(1)}`);
+    expect(svg).toContain(`LCL ${last.lcl!.toFixed(1)}`);
     expect(svg).toContain('spec min 355.0');
     expect(svg).toContain('test date [UTC]');
     expect(svg).toContain('Rp0.2 [MPa]');
+    expect(svg).toContain('moving range [MPa]');
+    expect(svg).toContain('CUSUM [SD]');
     expect(svg).toContain('EWMA of Rp0.2 [MPa]');
     expect(svg).toContain('shift −21.6');
+    expect(svg).toContain('cusum-low'); // the alert's detection rule
+  });
+
+  it('shows the year on every date label of every panel', async () => {
+    const svg = await renderControlChart(series, data.drift!.result, { idPrefix: 'cy' });
+    const texts = [...svg.matchAll(/<text[^>]*>([^<]*)<\/text>/g)].map((m) => m[1]);
+    const dates = texts.filter((t) => /^(Jan|Feb|Mar|Apr|May|Jun|Jul|Aug|Sep|Oct|Nov|Dec)\b/.test(t));
+    expect(dates.length).toBeGreaterThanOrEqual(8); // four panels, a few labels each
+    for (const t of dates) expect(t).toMatch(/^[A-Z][a-z]{2} 20\d\d$/);
+    // nothing that looks like a bare year or a bare month is left on an axis
+    expect(texts.filter((t) => /^(20\d\d|January|February)$/.test(t))).toEqual([]);
+  });
+});
+
+describe('supplier comparison chart', () => {
+  const data = sampleReportData({ groups: 1, controlCharts: 1 });
+  const c = data.drift!.result.comparisons[0];
+
+  it('draws a box per supplier and a Games–Howell interval per pair, red where it excludes zero', async () => {
+    const svg = await renderComparisonChart(c, 'gh');
+    // labels on two lines: supplier and count; first and second supplier of a pair
+    expect(svg).toContain('<tspan>Northmill</tspan><tspan x="0" dy="12">n = 120</tspan>');
+    expect(svg).toContain('<tspan>Harbor Rolling</tspan><tspan x="0" dy="12">− Eastfield</tspan>');
+    expect(svg).toContain('difference of means [MPa]');
+    expect(svg).toContain('Games–Howell 95 % simultaneous intervals');
+    // per supplier a box and a median tick (both drawn as rectangles)
+    expect(marks(svg, 'rect').length).toBe(6);
+    // interval points: two exclude zero (red), one does not
+    const dots = marks(svg, 'symbol');
+    expect(dots.filter((p) => p.includes('fill="#c0262d"')).length).toBe(2);
+    expect(dots.filter((p) => p.includes('fill="#1f4e79"')).length).toBe(1);
   });
 });
 

@@ -22,8 +22,9 @@ describe('report structure', async () => {
     expect(html.trimEnd().endsWith('</html>')).toBe(true);
     expect(count(html, '<section class="block group"')).toBe(3);
     for (let i = 1; i <= 3; i++) expect(html).toContain(`id="group-${i}"`);
-    // per group: curves chart + one histogram per property; plus one control chart per series
-    const charts = 3 * (1 + 4) + 3;
+    // per group: curves chart + one histogram per property; one control chart per series, and the
+    // supplier comparison of the one grade and property compared
+    const charts = 3 * (1 + 4) + 3 + 1;
     expect(count(html, '<svg ')).toBe(charts);
     expect(count(html, '<figure ')).toBe(charts);
     const figures = html.match(/<figure [^>]*>[\s\S]*?<\/figure>/g)!;
@@ -48,7 +49,7 @@ describe('report structure', async () => {
   });
 
   it('puts units on every axis', () => {
-    for (const title of ['plastic strain [–]', 'true stress [MPa]', 'tests [count]', 'Rp0.2 [MPa]', 'Rm [MPa]', 'Ag [%]', 'n-value [–]', 'test date [UTC]']) {
+    for (const title of ['plastic strain [–]', 'true stress [MPa]', 'tests [count]', 'Rp0.2 [MPa]', 'Rm [MPa]', 'Ag [%]', 'n-value [–]', 'test date [UTC]', 'moving range [MPa]', 'CUSUM [SD]', 'difference of means [MPa]']) {
       expect(html).toContain(title);
     }
   });
@@ -147,7 +148,7 @@ describe('report structure', async () => {
     const used = process.cpuUsage(cpu);
     const cpuSeconds = (used.user + used.system) / 1e6;
     console.log(`report at demo size: ${seconds.toFixed(2)} s wall, ${cpuSeconds.toFixed(2)} s CPU, ${(page.length / 1e6).toFixed(1)} MB, ${count(page, '<svg ')} charts`);
-    expect(count(page, '<svg ')).toBe(12 * 13 + 16);
+    expect(count(page, '<svg ')).toBe(12 * 13 + 16 + 1);
     // generous bound for a loaded CI machine; the figure itself is reported above
     expect(seconds).toBeLessThan(30);
   });
@@ -190,19 +191,20 @@ describe('degenerate input', () => {
     expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
   });
 
-  it('renders a group without a characteristic curve and a series without EWMA, skipping unparsable dates', async () => {
+  it('renders a group without a characteristic curve and a series without the lower panels, skipping unparsable dates', async () => {
     const data = sampleReportData({ groups: 1, properties: 2, controlCharts: 1 });
     const series = data.drift!.series[0];
-    const points = [...series.points.slice(0, 20), { date: 'not a date', value: 400, test_id: 'X-1' }];
+    const points = [...series.points.slice(0, 20), { date: 'not a date', value: 400, test_id: 'X-1', center: null, lcl: null, ucl: null }];
     const page = await renderReport({
       ...data,
       groups: [{ ...data.groups[0], curves: null, sample_curves: [] }],
-      drift: { result: { alerts: [], change_points: [], comparisons: [] }, series: [{ ...series, points, ewma: null }] },
+      drift: { result: { alerts: [], change_points: [], comparisons: [] }, series: [{ ...series, points, panels: false }] },
     });
     expect(page).toContain('No characteristic curve for this group');
-    // 2 histograms + 1 control chart, the latter without the EWMA panel
+    // 2 histograms + 1 control chart, the latter without the MR, CUSUM and EWMA panels
     expect(count(page, '<svg ')).toBe(3);
     expect(page).not.toContain('EWMA of');
+    expect(page).not.toContain('CUSUM [SD]');
     expect(page).toContain('20 tests · 0 alerts');
   });
 });

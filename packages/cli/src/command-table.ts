@@ -12,6 +12,7 @@ export { command as stats } from './commands/stats.ts';
 export { command as curves } from './commands/curves.ts';
 export { command as drift } from './commands/drift.ts';
 export { command as exclude } from './commands/exclude.ts';
+export { command as alerts } from './commands/alerts.ts';
 export { command as sample } from './commands/sample.ts';
 export { command as report } from './commands/report.ts';
 export { command as run } from './commands/run.ts';

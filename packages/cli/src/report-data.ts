@@ -50,14 +50,25 @@ function sampleCurve(grid: number[], t: { test_id: string; stress_mpa: (number |
   return { test_id: t.test_id, plastic_strain: x, stress_mpa: y };
 }
 
-/** The EWMA panel in the property's units: the charts run on standardized values, z = (x − mean)/sigma. */
-function ewmaInUnits(m: DriftResult['series'][number]['monitor']): ControlSeries['ewma'] {
-  const lim = m.ewmaLimits;
-  if (!lim || !('ucl' in lim) || !(m.baseline.sigma > 0)) return null;
-  const { mean, sigma } = m.baseline;
-  const toUnits = (z: number) => mean + sigma * z;
-  const conv = (v: number | number[]) => (Array.isArray(v) ? v.map(toUnits) : toUnits(v));
-  return { values: m.points.map((p) => toUnits(p.ewma)), center: mean, ucl: conv(lim.ucl), lcl: conv(lim.lcl), lambda: m.ewma?.lambda, L: m.ewma?.L };
+/** One drift series as the report draws it: running limits per point, the lower panels where alerts speak of it. */
+function controlSeries(s: DriftResult['series'][number], alerted: boolean): ControlSeries {
+  const m = s.monitor;
+  const heat = m.structure?.unit === 'heat-means';
+  return {
+    group: s.group,
+    property: s.property,
+    points: m.points.map((p) => ({
+      date: p.date, value: p.value, test_id: p.label, center: p.centre, lcl: p.lcl, ucl: p.ucl,
+      ewma: p.ewma, ewma_lcl: p.ewmaLcl, ewma_ucl: p.ewmaUcl, cusum_high: p.cusumHigh, cusum_low: p.cusumLow, mr: p.mr, mr_ucl: p.mrUcl,
+    })),
+    spec_min: s.lower_spec,
+    spec_max: s.upper_spec,
+    point_label: heat ? 'heat means' : 'tests',
+    structure_note: m.structure?.reason,
+    cusum: m.design ? { k: m.design.k, h: m.design.h } : null,
+    ewma: m.design ? { lambda: m.design.ewma.lambda, L: m.design.ewma.L } : null,
+    panels: alerted,
+  };
 }
 
 export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
@@ -87,19 +98,9 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     });
   }
 
-  const series: ControlSeries[] = (inp.drift?.series ?? []).map((s) => ({
-    group: s.group,
-    property: s.property,
-    points: s.monitor.points.map((p) => ({ date: p.date, value: p.value, test_id: p.testId })),
-    center: s.monitor.individuals.center,
-    ucl: s.monitor.individuals.ucl,
-    lcl: s.monitor.individuals.lcl,
-    ewma: ewmaInUnits(s.monitor),
-    spec_min: s.lower_spec,
-    point_label: s.monitor.points.some((p) => p.testId.startsWith('heat ')) ? 'points (heat means)' : 'tests',
-  }));
-  // Series with alerts first, so the charts that matter lead.
+  // Series with alerts first, so the charts that matter lead; they get the lower panels.
   const alerted = new Set((inp.drift?.alerts ?? []).map((a) => keyOf(a.group) + a.property));
+  const series: ControlSeries[] = (inp.drift?.series ?? []).map((s) => controlSeries(s, alerted.has(keyOf(s.group) + s.property)));
   series.sort((a, b) => Number(alerted.has(keyOf(b.group) + b.property)) - Number(alerted.has(keyOf(a.group) + a.property)));
 
   const rejections = await db.selectFrom('rejections').select(['file', 'line', 'col', 'code', 'message']).orderBy('id').execute();
@@ -138,7 +139,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       },
     },
     groups: reportGroups,
-    drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons as never }, series } : null,
+    drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons }, series, new_alerts: inp.drift.new_alerts } : null,
     quality: {
       rejections: rejections.map((r) => ({ file: r.file, line: r.line, column: r.col, code: r.code, message: r.message })),
       failed: failed.map((r) => ({ lab: r.lab, test_id: r.test_id, code: r.failure!.code, message: r.failure!.message })),

@@ -22,7 +22,8 @@
  *                                      // the design value is that method's value (default: the
  *                                      // lowest of the exact normal, lognormal, Weibull limits)
  *         }
- *       }
+ *       },
+ *       "max_fraction_below": 0.05     // drift: share of tests below a minimum that alarms (optional, default 0.05)
  *     }
  *   }
  * }
@@ -64,6 +65,8 @@ export interface GradeEntry {
   spec: SpecLimits;
   /** per-property statistical settings (absent: none) */
   properties?: Partial<Record<PropertyKey, PropertyStatistics>>;
+  /** Share of tests below a specified minimum above which drift raises the capability alert. */
+  max_fraction_below?: number;
 }
 
 export interface Catalog {
@@ -116,7 +119,10 @@ export function parseCatalog(raw: unknown, file = '(catalog)'): Catalog {
       if (x !== null && (typeof x !== 'number' || !Number.isFinite(x))) fail(`grade "${label}": spec.${k} must be a number or null`);
       spec[k as keyof SpecLimits] = x as number | null;
     }
+    const share = g.max_fraction_below;
+    if (share !== undefined && (typeof share !== 'number' || !(share > 0 && share < 1))) fail(`grade "${label}": max_fraction_below must be a number between 0 and 1`);
     const entry: GradeEntry = { family, yield_definition: yd, rp_offset_pct: num('rp_offset_pct', 0.2), rt_total_pct: num('rt_total_pct', 0.5), spec };
+    if (share !== undefined) entry.max_fraction_below = share as number;
     if (g.properties !== undefined) entry.properties = parsePropertyStatistics(label, g.properties, fail);
     out[label] = entry;
   }

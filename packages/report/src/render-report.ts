@@ -5,24 +5,17 @@
  * at the bottom; an empty caution falls back to `DESIGN_VALUE_CAUTION`, so it is never dropped.
  */
 import { DESIGN_VALUE_CAUTION } from './caution.ts';
-import { chartFigure } from './chart-figure.ts';
-import { renderControlChart } from './control-chart.ts';
-import { driftTables } from './drift-section.ts';
+import { renderDriftSection } from './drift-section.ts';
 import { formatFixed, formatInteger } from './format-number.ts';
 import { groupLabel } from './group-label.ts';
 import { groupAnchor, groupSection } from './group-section.ts';
 import { escapeHtml } from './html-escape.ts';
 import { htmlTable } from './html-table.ts';
-import { propertyAxisTitle } from './property-labels.ts';
 import { qualitySection } from './quality-section.ts';
 import { REPORT_CSS } from './report-style.ts';
-import type { ReportData, ReportDrift, ReportMeta } from './types.ts';
+import type { ReportData, ReportMeta } from './types.ts';
 
 const DEFAULT_MAX_ROWS = 200;
-
-function plural(n: number, one: string, many = `${one}s`): string {
-  return `${formatInteger(n)} ${n === 1 ? one : many}`;
-}
 
 /** "yield_min_mpa" → "yield min … MPa"; other keys as they are. */
 function specText(key: string, value: number): string {
@@ -91,37 +84,13 @@ function summarySection(meta: ReportMeta, data: ReportData): string {
 </section>`;
 }
 
-async function driftSection(drift: ReportDrift | null, maxRows: number): Promise<string> {
-  if (!drift) {
-    return `<section class="block" id="drift"><h2>Drift and control charts</h2><p class="empty">The drift stage has not been run.</p></section>`;
-  }
-  const charts: string[] = [];
-  for (let k = 0; k < drift.series.length; k++) {
-    const s = drift.series[k];
-    const svg = await renderControlChart(s, drift.result, { idPrefix: `cc${k + 1}` });
-    charts.push(
-      chartFigure(
-        svg,
-        `${propertyAxisTitle(s.property)} of ${groupLabel(s.group)} by test date: centre line and 3σ individuals limits; large points lie outside the limits or are named by an alert; dotted violet rules mark change points.`,
-      ),
-    );
-  }
-  return `<section class="block" id="drift">
-<h2>Drift and control charts</h2>
-<p class="lead">${plural(drift.result.alerts.length, 'alert')}, ${plural(drift.result.change_points.length, 'change point')}, ${plural(drift.series.length, 'monitored series', 'monitored series')}.</p>
-${driftTables(drift.result, maxRows)}
-<h3>Control charts</h3>
-${charts.length > 0 ? `<div class="cc-grid">\n${charts.join('\n')}\n</div>` : '<p class="empty">No monitored series.</p>'}
-</section>`;
-}
-
 export async function renderReport(data: ReportData): Promise<string> {
   const caution = data.caution !== undefined && data.caution.trim() !== '' ? data.caution : DESIGN_VALUE_CAUTION;
   const maxRows = data.options?.max_rows ?? DEFAULT_MAX_ROWS;
   const { meta } = data;
   const groups: string[] = [];
   for (let i = 0; i < data.groups.length; i++) groups.push(await groupSection(data.groups[i], i));
-  const drift = await driftSection(data.drift, maxRows);
+  const drift = await renderDriftSection(data.drift, maxRows);
   return `<!DOCTYPE html>
 <html lang="en">
 <head>

@@ -176,13 +176,28 @@ export interface ReportGroup {
 export type DriftTestRef = string | { lab?: string; test_id: string };
 
 export interface DriftAlert {
+  /** Stable id of the alert (12 hex digits); absent in hand-made inputs. */
+  id?: string;
   group: GroupKey;
   property: string;
   rule: string;
+  /** The contract's date: the same as `detected_on` where that is given. */
   first_date: string;
+  /** Date of the first test at which the rule fires using only the data up to that date. */
+  detected_on?: string;
+  /** Estimated start of the shift, where the rule estimates one. */
+  change_date?: string | null;
   magnitude: number | null;
-  /** 'sd' (multiples of the baseline standard deviation) or 'property-units'; absent means unstated. */
+  /** 'property-units', 'fraction' or 'sd'; absent means unstated. */
   magnitude_unit?: string;
+  /** 'tests' or 'heat-means': what the chart's points are. */
+  chart?: string;
+  /** 'open', 'acknowledged' or 'closed', with who and the note of the latest action. */
+  state?: string;
+  state_by?: string | null;
+  state_note?: string | null;
+  /** First reported by the run this report shows. */
+  new?: boolean;
   tests: readonly DriftTestRef[];
 }
 
@@ -190,13 +205,48 @@ export interface ChangePoint {
   group: GroupKey;
   property: string;
   date: string;
+  /** When the data up to then would have shown it (null: not an alarm). */
+  detected_on?: string | null;
   shift: number | null;
-  /** Confidence interval of the date or shift, as the drift stage states it. */
+  /** Confidence interval of the shift, as the drift stage states it. */
   ci: readonly JsonValue[] | Readonly<Record<string, JsonValue>> | null;
 }
 
-/** A comparison row (supplier against supplier, period against period); shown as given. */
-export type DriftComparison = Readonly<Record<string, JsonValue>>;
+/** Box-plot numbers of one group in a comparison. */
+export interface BoxNumbers {
+  n: number;
+  mean: number;
+  q1: number;
+  median: number;
+  q3: number;
+  whisker_low: number;
+  whisker_high: number;
+}
+
+/** A pairwise comparison: Games–Howell (difference with interval) or a rank test (p only). */
+export interface PairComparison {
+  a: string;
+  b: string;
+  method: string;
+  /** null where not computed (Games–Howell beyond 10 groups). */
+  p: number | null;
+  p_adjusted?: number;
+  difference?: number;
+  ci?: readonly [number, number];
+  level?: number;
+}
+
+/** One test of the supplier comparison within a grade (Welch's ANOVA or Kruskal–Wallis). */
+export interface DriftComparison {
+  grade: string;
+  property: string;
+  test: string;
+  statistic: number;
+  df: readonly number[];
+  p: number;
+  pairwise: readonly PairComparison[];
+  summaries: Readonly<Record<string, BoxNumbers>>;
+}
 
 export interface DriftResult {
   alerts: readonly DriftAlert[];
@@ -204,42 +254,51 @@ export interface DriftResult {
   comparisons: readonly DriftComparison[];
 }
 
+/** One charted point (a test or a heat mean) with the chart's values at it. */
 export interface ControlPoint {
-  /** ISO 8601 date of the test. */
+  /** ISO 8601 date of the point (a heat mean: its last test). */
   date: string;
   value: number;
   test_id: string;
   lab?: string;
+  /** The tests of a heat mean (ids as alerts name them). */
+  members?: readonly string[];
+  /** Running centre and limits judged from the points before this one; null before charting starts. */
+  center: number | null;
+  lcl: number | null;
+  ucl: number | null;
+  ewma?: number | null;
+  ewma_lcl?: number | null;
+  ewma_ucl?: number | null;
+  /** Upper and lower CUSUM, SD of a point. */
+  cusum_high?: number | null;
+  cusum_low?: number | null;
+  mr?: number | null;
+  mr_ucl?: number | null;
 }
 
-/** EWMA statistic aligned with the points; limits constant or one per point. */
-export interface EwmaSeries {
-  values: readonly number[];
-  center: number;
-  ucl: number | readonly number[];
-  lcl: number | readonly number[];
-  lambda?: number;
-  L?: number;
-}
-
-/** Data for one control chart (individuals chart, optional EWMA panel). */
+/** Data for one control chart: individuals, and where `panels` is set moving range, CUSUM and EWMA. */
 export interface ControlSeries {
   group: GroupKey;
   property: string;
   points: readonly ControlPoint[];
-  center: number;
-  ucl: number;
-  lcl: number;
-  ewma?: EwmaSeries | null;
   spec_min?: number | null;
   spec_max?: number | null;
   /** what one point is, plural (default 'tests'; e.g. 'heat means') */
   point_label?: string;
+  /** why the points are what they are, in words */
+  structure_note?: string;
+  cusum?: { k: number; h: number } | null;
+  ewma?: { lambda: number; L: number } | null;
+  /** draw the moving-range, CUSUM and EWMA panels below the individuals */
+  panels?: boolean;
 }
 
 export interface ReportDrift {
   result: DriftResult;
   series: readonly ControlSeries[];
+  /** alerts first reported by the run shown */
+  new_alerts?: number;
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -1,7 +1,7 @@
 /**
  * Tables written by the pipeline stages (reduce, aggregate, design, monitor). Each result row is
  * keyed by (test or group, settings hash, algorithm version) so old and new results stand side by
- * side. Created by migrations/0100-results.ts.
+ * side. Created by migrations/0100-results.ts (drift_alerts by 0120-drift-alerts.ts).
  */
 import type { ColumnType, Generated, JSONColumnType } from 'kysely';
 
@@ -70,9 +70,21 @@ export interface GroupResultsTable {
   body: Json;
 }
 
+/** Every drift alert ever reported, with the monitor run that first reported it (insert only). */
+export interface DriftAlertsTable {
+  alert_id: string;
+  group_key: Json<Record<string, string>>;
+  property: string;
+  rule: string;
+  detected_on: string;
+  first_run: number;
+  first_seen_at: Generated<Timestamp>;
+}
+
 export interface ResultTables {
   stage_settings: StageSettingsTable;
   stage_runs: StageRunsTable;
   test_results: TestResultsTable;
   group_results: GroupResultsTable;
+  drift_alerts: DriftAlertsTable;
 }

@@ -142,6 +142,16 @@ export interface ExclusionsTable {
   decided_at: Generated<Date>;
 }
 
+/** A user's acknowledgement, closing or reopening of a drift alert (appended, never changed). */
+export interface AlertActionsTable {
+  id: Generated<number>;
+  alert_id: string;
+  action: 'acknowledge' | 'close' | 'reopen';
+  actor: string;
+  note: string | null;
+  acted_at: Generated<Date>;
+}
+
 export interface RawTables {
   source_files: SourceFilesTable;
   ingest_runs: IngestRunsTable;
@@ -153,6 +163,7 @@ export interface RawTables {
   summary_records: SummaryRecordsTable;
   rejections: RejectionsTable;
   exclusions: ExclusionsTable;
+  alert_actions: AlertActionsTable;
 }
 
 export interface Database extends RawTables, ResultTables {}

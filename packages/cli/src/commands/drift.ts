@@ -1,4 +1,4 @@
-/** `fractile drift`: control charts, change points and supplier comparison (contract JSON). */
+/** `fractile drift`: control charts, change points, capability and supplier comparison (contract JSON). */
 import type { Command } from 'commander';
 import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
@@ -11,48 +11,65 @@ function positive(s: unknown, name: string): number | undefined {
   return x;
 }
 
+const UNITS = ['auto', 'tests', 'heat-means'] as const;
+
 export const command: CommandModule = {
   order: 60,
   register(program: Command) {
     addFilterOptions(
       program
         .command('drift')
-        .description('supplier drift over time: individuals/moving-range, EWMA and CUSUM charts, change points, rolling capability, supplier comparison, alerts')
+        .description('supplier drift over time: self-starting CUSUM, Shewhart, EWMA and moving-range charts on tests or heat means, change points, capability of individual tests, supplier comparison, alerts with their state')
         .option('--by <fields>', 'series grouping (comma-separated)', 'supplier,grade')
         .option('--property <keys...>', 'properties (default: yield_mpa, rm_mpa)')
-        .option('--baseline <spec>', 'baseline: N (first N points) or FROM..TO dates (default: the first third of each series, at least 30 points)')
+        .option('--baseline <spec>', 'tests the chart structure (heat effect, SD of a test) is studied on: N (first N tests) or FROM..TO dates (default: the first 100 tests)')
+        .option('--unit <unit>', 'points charted: auto (heat means where the baseline shows a heat effect), tests or heat-means', 'auto')
+        .option('--per-test', 'the same as --unit tests')
+        .option('--arl0 <tests>', 'in-control average run length of each one-sided CUSUM, in tests (default 1500)')
+        .option('--design-shift <sd>', 'shift the CUSUM is designed for, in SDs of one test (default 1)')
+        .option('--cusum-k <k>', 'given CUSUM reference value, in SDs of a charted point (with --cusum-h; default: designed)')
+        .option('--cusum-h <h>', 'given CUSUM decision interval, in SDs of a charted point (with --cusum-k)')
         .option('--ewma-lambda <l>', 'EWMA weight λ (default 0.1)')
-        .option('--ewma-l <L>', 'EWMA limit width L in SDs (default 2.814, ARL0 ≈ 500 with λ = 0.1)')
-        .option('--cusum-k <k>', 'CUSUM reference value k in SDs (default 0.5)')
-        .option('--cusum-h <h>', 'CUSUM decision interval h in SDs (default 5)')
-        .option('--catalog <file>', 'grade catalog for the spec minima (default: the catalog of the last reduce)')
-        .option('--all-rules', 'every chart signal is an alert (default: only signals toward a specification limit of the property)')
-        .option('--per-test', 'chart every test (default: one point per heat, the mean of its tests)'),
+        .option('--ewma-l <L>', 'EWMA limit width L in SDs (default 2.814, ARL0 ≈ 500 points with λ = 0.1)')
+        .option('--capability-window <tests>', 'tests in the rolling capability window (default 50)')
+        .option('--catalog <file>', 'grade catalog for the spec limits and max_fraction_below (default: the catalog of the last reduce)')
+        .option('--all-rules', 'every chart signal is an alert (default: CUSUM, Shewhart, change-point and capability rules toward a specification limit)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { driftContract, parseGroupBy, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+      const { driftContract, parseGroupBy, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
       let baseline: { firstN?: number; from?: string; to?: string } | undefined;
       if (typeof o.baseline === 'string') {
         const m = /^(\d{4}-\d{2}-\d{2})\.\.(\d{4}-\d{2}-\d{2})$/.exec(o.baseline);
         if (m) baseline = { from: m[1], to: m[2] };
         else if (/^\d+$/.test(o.baseline) && Number(o.baseline) >= 2) baseline = { firstN: Number(o.baseline) };
-        else throw new CliError(`--baseline must be a count (e.g. 30) or a date range FROM..TO, got "${o.baseline}"`);
+        else throw new CliError(`--baseline must be a count (e.g. 100) or a date range FROM..TO, got "${o.baseline}"`);
       }
+      const unit = o.perTest ? 'tests' : String(o.unit);
+      if (!(UNITS as readonly string[]).includes(unit)) throw new CliError(`--unit must be one of ${UNITS.join(', ')}, got "${unit}"`);
       const lambda = positive(o.ewmaLambda, '--ewma-lambda');
       const L = positive(o.ewmaL, '--ewma-l');
       const k = positive(o.cusumK, '--cusum-k');
       const h = positive(o.cusumH, '--cusum-h');
+      if ((k === undefined) !== (h === undefined)) throw new CliError('--cusum-k and --cusum-h go together (without them the CUSUM is designed from --arl0 and --design-shift)');
       if (lambda !== undefined && lambda > 1) throw new CliError('--ewma-lambda must be in (0, 1]');
+      const arl0 = positive(o.arl0, '--arl0');
+      const shift = positive(o.designShift, '--design-shift');
+      const window = positive(o.capabilityWindow, '--capability-window');
+      if (window !== undefined && !(Number.isInteger(window) && window >= 2)) throw new CliError(`--capability-window must be a whole number of tests, 2 or more, got "${String(o.capabilityWindow)}"`);
       const monitor = {
         ...(baseline ? { baseline } : {}),
+        ...(arl0 !== undefined ? { arl0Tests: arl0 } : {}),
+        ...(shift !== undefined ? { designShiftSd: shift } : {}),
+        ...(k !== undefined && h !== undefined ? { cusum: { k, h } } : {}),
         ...(lambda !== undefined || L !== undefined ? { ewma: { lambda: lambda ?? 0.1, L: L ?? 2.814 } } : {}),
-        ...(k !== undefined || h !== undefined ? { cusum: { k: k ?? 0.5, h: h ?? 5 } } : {}),
+        ...(window !== undefined ? { capabilityWindow: window } : {}),
       };
       await withStore(g, async (store) => {
         const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits', unit: o.perTest ? 'test' : 'heat' });
-        log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts, ${r.change_points.length} change points`);
-        const flat = r.alerts.map((a) => ({ group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
+        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits', unit: unit as (typeof UNITS)[number] });
+        const open = r.alerts.filter((a) => a.state === 'open').length;
+        log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts (${r.new_alerts} new since the last run, ${open} open), ${r.change_points.length} change points`);
+        const flat = r.alerts.map((a) => ({ id: a.id, state: a.state, new: a.new ? 'new' : '', group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, chart: a.chart, detected_on: a.detected_on, change_date: a.change_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
         emit(g.format, driftContract(r), flat);
       });
     });

@@ -1,41 +1,47 @@
 /**
- * The monitor stage: per group (default supplier × grade) and property, the series in time order
- * (test date, then heat) goes through control charts, change-point detection and rolling
- * capability against the grade minimum; suppliers of each grade are compared. Output follows the
- * drift contract: {alerts, change_points, comparisons}, plus the chart data for the report.
+ * The monitor stage: per group (default supplier × grade) and property, the series of tests in
+ * time order (test date, then heat) goes through the self-starting charts, the change-point
+ * analysis and the rolling capability of `monitorSeries` (stats); suppliers of each grade are
+ * compared. Output follows the drift contract: {alerts, change_points, comparisons}, plus the
+ * chart data for the report. Every alert says when it would have rung (`detected_on`; the
+ * contract's `first_date` is the same date) and carries its state (open, acknowledged, closed)
+ * and whether it is new since the last run (alert-state.ts).
  */
 import type { Store } from '@fractile/store';
-import { compareGroups, monitorSeries, type GroupComparison, type MonitorOptions, type SeriesMonitor } from '@fractile/stats';
+import { compareGroups, monitorSeries, type ChartUnit, type GroupComparison, type MonitorOptions, type SeriesMonitor } from '@fractile/stats';
 import { gradeSettings, type Catalog } from '../catalog.ts';
 import { groupRows, type GroupField } from '../aggregate/grouping.ts';
-import { limitsFor } from '../aggregate/limits.ts';
+import { limitsFor, type PropertyLimits } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { STAGE_VERSIONS, findDoneRun, finishRun, latestRun, saveSettings, startRun } from '../runs.ts';
+import { alertId, alertStatuses, registerAlerts, type AlertState } from './alert-state.ts';
 
 export interface DriftOptions {
   by: GroupField[];
   properties?: PropertyKey[];
-  monitor?: Omit<MonitorOptions, 'lowerSpec'>;
+  monitor?: Omit<MonitorOptions, 'lowerSpec' | 'maxFractionBelow' | 'unit'>;
   filter?: PropertyFilter;
   catalog: Catalog | null;
   codeVersion: string;
   /**
-   * Which chart signals become alerts. 'toward-limits' (default): only signals in the direction of
-   * a specification limit the property has (downward rules where there is a minimum, upward ones
-   * where there is a maximum; both where it has none), and never a single moving range — the
-   * charts still show every signal. 'all': every rule.
+   * Which signals become alerts. 'toward-limits' (default): the CUSUM, Shewhart, change-point and
+   * capability rules in the direction of a specification limit the property has (downward where
+   * there is a minimum, upward where there is a maximum; both where it has none). The EWMA and the
+   * moving range are drawn but raise no alert: the EWMA answers the CUSUM's question with nearly
+   * the same run lengths (Lucas & Saccucci 1990), so a shift would be reported twice, and a
+   * single wide moving range is no drift. 'all': every rule.
    */
   alertRules?: 'toward-limits' | 'all';
-  /** chart unit: 'heat' (default; the mean of each heat's tests) or 'test' (every test) */
-  unit?: 'heat' | 'test';
+  /** Points charted: 'auto' (default; heat means where the baseline shows a heat effect), 'tests', 'heat-means'. */
+  unit?: 'auto' | ChartUnit;
 }
 
-const DOWNWARD_RULES = new Set(['individuals-below-lcl', 'ewma-low', 'cusum-low', 'change-point-down', 'capability-margin']);
-const UPWARD_RULES = new Set(['individuals-above-ucl', 'ewma-high', 'cusum-high', 'change-point-up']);
+const DOWNWARD_RULES = new Set(['individuals-below-lcl', 'cusum-low', 'change-point-down', 'capability-below-minimum']);
+const UPWARD_RULES = new Set(['individuals-above-ucl', 'cusum-high', 'change-point-up']);
 
 /** Whether a signal of `rule` is an alert for a property with these limits (see alertRules). */
-export function alertMatters(rule: string, limits: { lower: number | null; upper: number | null }, mode: 'toward-limits' | 'all' = 'toward-limits'): boolean {
+export function alertMatters(rule: string, limits: PropertyLimits, mode: 'toward-limits' | 'all' = 'toward-limits'): boolean {
   if (mode === 'all') return true;
   if (limits.lower === null && limits.upper === null) return DOWNWARD_RULES.has(rule) || UPWARD_RULES.has(rule);
   if (DOWNWARD_RULES.has(rule)) return limits.lower !== null;
@@ -43,86 +49,56 @@ export function alertMatters(rule: string, limits: { lower: number | null; upper
   return false;
 }
 
-/**
- * Rolling Cpk against the minimum below which the capability rule fires: 2/3, a rolling window
- * whose normal model puts about 2.3 % of the product below the minimum (mean less than 2 SD above
- * it). Mill populations commonly sit 2–3 SD above the minimum, so the manufacturing target of 1.33
- * would raise a standing alarm rather than a drift alarm.
- */
-export const DRIFT_MIN_CPK = 2 / 3;
-
-// Charts are standardized by the baseline's sample SD (not the moving range): consecutive tests
-// often share a heat, so the moving range sees only the within-heat scatter and a chart on it would
-// alarm at every change of heat.
-
-/**
- * Default baseline of a series: its first third, at least 30 tests (all if fewer). Tests of one
- * heat come one after another, so a short baseline sees few heats and underrates the spread
- * between them; a third of three years of supply is the first year.
- */
-export function defaultBaseline(n: number): { firstN: number } {
-  return { firstN: Math.min(n, Math.max(30, Math.floor(n / 3))) };
-}
-
-/** A change point is an alert when it is the series' last (the current level) and moves ≥ 1 SD. */
-const CHANGE_ALERT_MIN_SD = 1;
-
 export const DEFAULT_DRIFT_PROPERTIES: PropertyKey[] = ['yield_mpa', 'rm_mpa'];
 
-type TestPoint = { value: number; date: string; testId: string; heat: string | null };
-
-/**
- * One point per heat: the mean of the heat's tests, dated by its first test, in time order (tests
- * without a heat stay points of their own). Tests of a heat share its chemistry and rolling, so
- * they are a rational subgroup (Montgomery): charting single tests would mistake the change from
- * one heat to the next for drift.
- */
-export function heatMeans(points: TestPoint[]): { points: TestPoint[]; members: Map<string, string[]> } {
-  const byHeat = new Map<string, { sum: number; n: number; date: string; ids: string[]; order: number }>();
-  const out: (TestPoint & { order: number })[] = [];
-  points.forEach((pt, order) => {
-    if (!pt.heat) {
-      out.push({ ...pt, order });
-      return;
-    }
-    const h = byHeat.get(pt.heat);
-    if (h) {
-      h.sum += pt.value;
-      h.n++;
-      h.ids.push(pt.testId);
-    } else byHeat.set(pt.heat, { sum: pt.value, n: 1, date: pt.date, ids: [pt.testId], order });
-  });
-  const members = new Map<string, string[]>();
-  for (const [heat, h] of byHeat) {
-    const id = `heat ${heat}`;
-    members.set(id, h.ids);
-    out.push({ value: h.sum / h.n, date: h.date, testId: id, heat, order: h.order });
-  }
-  out.sort((a, b) => a.order - b.order);
-  return { points: out.map(({ order: _o, ...pt }) => pt), members };
-}
-
-export interface DriftAlert {
+/** An alert as the monitor stage computes it (its state is added when it is reported). */
+export interface DriftAlertCore {
+  id: string;
   group: Record<string, string>;
   property: PropertyKey;
   rule: string;
+  /** Kept for the contract: the same date as `detected_on`. */
   first_date: string;
+  /** Date of the first test at which the rule fires using only the data up to that date. */
+  detected_on: string;
+  /** Estimated start of the shift, where the rule estimates one. */
+  change_date: string | null;
+  last_date: string;
   magnitude: number;
   magnitude_unit: string;
+  magnitude_sd: number | null;
+  /** What the chart's points are. */
+  chart: ChartUnit;
   tests: string[];
+  detail: string;
+}
+
+export interface DriftAlert extends DriftAlertCore {
+  state: AlertState;
+  /** Reported by this run for the first time. */
+  new: boolean;
+  /** Who took the latest action, its note and time (null while untouched). */
+  state_by: string | null;
+  state_note: string | null;
+  state_at: string | null;
 }
 
 export interface DriftChangePoint {
   group: Record<string, string>;
   property: PropertyKey;
+  /** Estimated location: date of the first point after the change. */
   date: string;
+  /** When it would have been found (null: its interval covers zero, or it never reaches the alarm penalty). */
+  detected_on: string | null;
   shift: number;
   ci: [number, number];
+  chart: ChartUnit;
 }
 
 export interface DriftComparison extends GroupComparison {
   grade: string;
   property: PropertyKey;
+  /** Tests per supplier. */
   groups: Record<string, number>;
 }
 
@@ -130,16 +106,23 @@ export interface DriftSeries {
   group: Record<string, string>;
   property: PropertyKey;
   lower_spec: number | null;
+  upper_spec: number | null;
   monitor: SeriesMonitor;
 }
 
-export interface DriftResult {
-  run: number;
-  reused: boolean;
-  alerts: DriftAlert[];
+export interface DriftAnalysis {
+  alerts: DriftAlertCore[];
   change_points: DriftChangePoint[];
   comparisons: DriftComparison[];
   series: DriftSeries[];
+}
+
+export interface DriftResult extends Omit<DriftAnalysis, 'alerts'> {
+  run: number;
+  reused: boolean;
+  alerts: DriftAlert[];
+  /** Alerts reported for the first time by this call. */
+  new_alerts: number;
   seconds: number;
 }
 
@@ -151,37 +134,10 @@ function grading(key: Record<string, string>, rows: PropertyRow[], idx: number[]
   return g.size === 1 ? [...g][0] : null;
 }
 
-/** Pure part: drift analysis of loaded rows (already in time order: date, then heat). */
-export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'codeVersion'>): Omit<DriftResult, 'run' | 'reused' | 'seconds'> {
-  const properties = opts.properties ?? DEFAULT_DRIFT_PROPERTIES;
-  const groups = groupRows(rows, opts.by, properties);
-  const alerts: DriftAlert[] = [];
-  const change_points: DriftChangePoint[] = [];
-  const series: DriftSeries[] = [];
-  for (const g of groups) {
-    const grade = grading(g.key, rows, g.rows);
-    const spec = grade === null ? null : gradeSettings(opts.catalog, grade).spec;
-    for (const p of properties) {
-      const perTest = g.rows
-        .map((ri, j) => ({ value: g.columns[p][j], date: rows[ri].tested_on, testId: `${rows[ri].lab}/${rows[ri].test_id}`, heat: rows[ri].heat }))
-        .filter((x) => Number.isFinite(x.value));
-      const { points: pts, members } = (opts.unit ?? 'heat') === 'heat' ? heatMeans(perTest) : { points: perTest, members: null };
-      if (pts.length < MIN_SERIES) continue;
-      const expand = (ids: string[]) => (members ? ids.flatMap((id) => members.get(id) ?? [id]) : ids);
-      const limits = limitsFor(p, spec);
-      const lowerSpec = limits.lower;
-      const m = monitorSeries(pts, { minCpk: DRIFT_MIN_CPK, sigma: 'sample-sd', baseline: defaultBaseline(pts.length), ...opts.monitor, lowerSpec });
-      series.push({ group: g.key, property: p, lower_spec: lowerSpec, monitor: m });
-      const lastChange = Math.max(-1, ...m.alerts.filter((a) => a.rule.startsWith('change-point')).map((a) => a.first_index));
-      const current = (a: (typeof m.alerts)[number]) => !a.rule.startsWith('change-point') || opts.alertRules === 'all' || (a.first_index === lastChange && Math.abs(a.magnitude_sd) >= CHANGE_ALERT_MIN_SD);
-      for (const a of m.alerts) if (alertMatters(a.rule, limits, opts.alertRules) && current(a)) alerts.push({ group: g.key, property: p, rule: a.rule, first_date: a.first_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, tests: expand(a.tests) });
-      for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, shift: c.shift, ci: c.ci });
-    }
-  }
-  // Suppliers compared within each grade.
+/** Suppliers compared within each grade, on individual tests (at least 3 per supplier). */
+function compareSuppliers(rows: PropertyRow[], properties: readonly PropertyKey[]): DriftComparison[] {
   const comparisons: DriftComparison[] = [];
-  const byGrade = groupRows(rows, ['grade'], properties);
-  for (const gg of byGrade) {
+  for (const gg of groupRows(rows, ['grade'], properties)) {
     for (const p of properties) {
       const bySupplier: Record<string, number[]> = {};
       gg.rows.forEach((ri, j) => {
@@ -195,7 +151,36 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
       }
     }
   }
-  return { alerts, change_points, comparisons, series };
+  return comparisons;
+}
+
+/** Pure part: drift analysis of loaded rows (already in time order: date, then heat). */
+export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'codeVersion'>): DriftAnalysis {
+  const properties = opts.properties ?? DEFAULT_DRIFT_PROPERTIES;
+  const alerts: DriftAlertCore[] = [];
+  const change_points: DriftChangePoint[] = [];
+  const series: DriftSeries[] = [];
+  for (const g of groupRows(rows, opts.by, properties)) {
+    const grade = grading(g.key, rows, g.rows);
+    const entry = grade === null ? null : gradeSettings(opts.catalog, grade);
+    for (const p of properties) {
+      const tests = g.rows
+        .map((ri, j) => ({ value: g.columns[p][j], date: rows[ri].tested_on, testId: `${rows[ri].lab}/${rows[ri].test_id}`, heat: rows[ri].heat }))
+        .filter((x) => Number.isFinite(x.value));
+      if (tests.length < MIN_SERIES) continue;
+      const limits = limitsFor(p, entry?.spec ?? null);
+      const m = monitorSeries(tests, { ...opts.monitor, unit: opts.unit ?? 'auto', lowerSpec: limits.lower, maxFractionBelow: entry?.max_fraction_below });
+      series.push({ group: g.key, property: p, lower_spec: limits.lower, upper_spec: limits.upper, monitor: m });
+      const chart = m.structure?.unit ?? 'tests';
+      for (const a of m.alerts) {
+        if (!alertMatters(a.rule, limits, opts.alertRules)) continue;
+        const identity = { group: g.key, property: p, rule: a.rule, detected_on: a.detected_on };
+        alerts.push({ id: alertId(identity), ...identity, first_date: a.detected_on, change_date: a.change_date, last_date: a.last_date, magnitude: a.magnitude, magnitude_unit: a.magnitude_unit, magnitude_sd: a.magnitude_sd, chart, tests: a.tests, detail: a.detail });
+      }
+      for (const c of m.changePoints) change_points.push({ group: g.key, property: p, date: c.date, detected_on: c.detected_on, shift: c.shift, ci: c.ci, chart });
+    }
+  }
+  return { alerts, change_points, comparisons: compareSuppliers(rows, properties), series };
 }
 
 export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
@@ -207,31 +192,53 @@ export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftR
     properties: opts.properties ?? DEFAULT_DRIFT_PROPERTIES,
     monitor: opts.monitor ?? {},
     alert_rules: opts.alertRules ?? 'toward-limits',
-    unit: opts.unit ?? 'heat',
+    unit: opts.unit ?? 'auto',
     filter: opts.filter ?? {},
-    spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
+    spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, { ...e.spec, max_fraction_below: e.max_fraction_below }])) : null,
   };
   const settingsHash = await saveSettings(db, 'monitor', settings);
   const inputHash = hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`));
   const done = await findDoneRun(db, 'monitor', settingsHash, inputHash);
-  if (done) {
-    const stored = await loadDrift(store, done.id);
-    if (stored) return { run: done.id, reused: true, ...stored, seconds: (performance.now() - t0) / 1000 };
+  let run: number;
+  let analysis: DriftAnalysis | null = done ? await loadDrift(store, done.id) : null;
+  const reused = analysis !== null;
+  if (done && analysis) run = done.id;
+  else {
+    run = await startRun(db, 'monitor', settingsHash, inputHash, opts.codeVersion);
+    analysis = analyzeDrift(rows, opts);
+    await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [[run, 'monitor', JSON.stringify({}), '', JSON.stringify(analysis)]]);
+    await finishRun(db, run, { tests: rows.length, series: analysis.series.length, alerts: analysis.alerts.length, change_points: analysis.change_points.length });
   }
-  const run = await startRun(db, 'monitor', settingsHash, inputHash, opts.codeVersion);
-  const result = analyzeDrift(rows, opts);
-  await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [[run, 'monitor', JSON.stringify({}), '', JSON.stringify(result)]]);
-  await finishRun(db, run, { tests: rows.length, series: result.series.length, alerts: result.alerts.length, change_points: result.change_points.length });
-  return { run, reused: false, ...result, seconds: (performance.now() - t0) / 1000 };
+  const fresh = await registerAlerts(db, run, analysis.alerts);
+  const alerts = await withState(store, analysis.alerts, fresh);
+  return { run, reused, ...analysis, alerts, new_alerts: fresh.size, seconds: (performance.now() - t0) / 1000 };
 }
 
-export async function loadDrift(store: Store, run: number): Promise<Omit<DriftResult, 'run' | 'reused' | 'seconds'> | null> {
+/** Alerts with their current state; `fresh` holds the ids new in this call. */
+export async function withState(store: Store, alerts: readonly DriftAlertCore[], fresh: ReadonlySet<string> = new Set()): Promise<DriftAlert[]> {
+  const status = await alertStatuses(store.db, alerts.map((a) => a.id));
+  return alerts.map((a) => {
+    const s = status.get(a.id);
+    return { ...a, state: s?.state ?? 'open', new: fresh.has(a.id), state_by: s?.by ?? null, state_note: s?.note ?? null, state_at: s?.at ?? null };
+  });
+}
+
+export async function loadDrift(store: Store, run: number): Promise<DriftAnalysis | null> {
   const row = await store.db.selectFrom('group_results').select(['body']).where('run_id', '=', run).where('stage', '=', 'monitor').executeTakeFirst();
   if (!row) return null;
-  return (typeof row.body === 'string' ? JSON.parse(row.body) : row.body) as Omit<DriftResult, 'run' | 'reused' | 'seconds'>;
+  return (typeof row.body === 'string' ? JSON.parse(row.body) : row.body) as DriftAnalysis;
 }
 
 /** The contract JSON of `fractile drift`. */
 export function driftContract(r: Pick<DriftResult, 'alerts' | 'change_points' | 'comparisons'>): { alerts: DriftAlert[]; change_points: DriftChangePoint[]; comparisons: DriftComparison[] } {
   return { alerts: r.alerts, change_points: r.change_points, comparisons: r.comparisons };
+}
+
+/** The alerts of the newest finished drift run with their current state (null when drift never ran). */
+export async function latestDriftAlerts(store: Store): Promise<{ run: number; alerts: DriftAlert[] } | null> {
+  const last = await latestRun(store.db, 'monitor');
+  if (!last) return null;
+  const analysis = await loadDrift(store, last.id);
+  if (!analysis) return null;
+  return { run: last.id, alerts: await withState(store, analysis.alerts) };
 }

@@ -176,39 +176,55 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
     const group = groups[s % groups.length].key;
     const property = s % 2 === 0 ? 'rp02_mpa' : 'rm_mpa';
     const base = property === 'rp02_mpa' ? 392 : 528;
+    const sigma = 12;
+    const lambda = 0.1;
+    const L = 2.814;
+    const k = 0.5;
+    const h = 5.75;
+    const half = L * sigma * Math.sqrt(lambda / (2 - lambda));
+    let w = base;
+    let hi = 0;
+    let lo = 0;
+    let prev: number | null = null;
+    let firstOut = -1;
     const points = Array.from({ length: 60 }, (_, i) => {
       const date = new Date(Date.UTC(2023, 0, 3) + i * 6 * 86_400_000).toISOString().slice(0, 10);
-      const shift = i >= 42 ? -22 : 0;
-      return { date, value: base + shift + 12 * gaussian(random), test_id: `D${s + 1}-${i + 1}`, lab: 'east' };
+      const value = base + (i >= 42 ? -22 : 0) + sigma * gaussian(random);
+      const z = (value - base) / sigma;
+      w = lambda * value + (1 - lambda) * w;
+      hi = Math.max(0, hi + z - k);
+      lo = Math.max(0, lo - z - k);
+      if (firstOut < 0 && lo > h) firstOut = i;
+      const mr = prev === null ? null : Math.abs(value - prev);
+      prev = value;
+      return {
+        date, value, test_id: `D${s + 1}-${i + 1}`, lab: 'east', center: base, lcl: base - 3.5 * sigma, ucl: base + 3.5 * sigma,
+        ewma: w, ewma_lcl: base - half, ewma_ucl: base + half, cusum_high: hi, cusum_low: lo, mr, mr_ucl: 3.267 * 1.128 * sigma,
+      };
     });
-    const lambda = 0.1;
-    let z = base;
-    const ewma = points.map((p) => (z = lambda * p.value + (1 - lambda) * z));
-    const sigma = 12;
-    const width = (i: number) => 2.7 * sigma * Math.sqrt((lambda / (2 - lambda)) * (1 - (1 - lambda) ** (2 * (i + 1))));
-    series.push({
-      group,
-      property,
-      points,
-      center: base,
-      ucl: base + 3 * sigma,
-      lcl: base - 3 * sigma,
-      ewma: { values: ewma, center: base, ucl: ewma.map((_, i) => base + width(i)), lcl: ewma.map((_, i) => base - width(i)), lambda, L: 2.7 },
-      spec_min: property === 'rp02_mpa' ? 355 : 470,
-    });
-    const firstOut = ewma.findIndex((v, i) => v < base - width(i));
+    series.push({ group, property, points, spec_min: property === 'rp02_mpa' ? 355 : 470, cusum: { k, h }, ewma: { lambda, L }, panels: true, point_label: 'tests', structure_note: 'no heat effect shown' });
     if (firstOut >= 0) {
       alerts.push({
+        id: `a1b2c3d4e5f${s}`,
         group,
         property,
-        rule: 'ewma_below_lcl',
+        rule: 'cusum-low',
         first_date: points[firstOut].date,
+        detected_on: points[firstOut].date,
+        change_date: points[42].date,
         magnitude: -22,
         magnitude_unit: 'property-units',
+        chart: 'tests',
+        state: s === 0 ? 'acknowledged' : 'open',
+        state_by: s === 0 ? 'R. Okafor' : null,
+        state_note: s === 0 ? 'mill informed, certificates requested' : null,
+        new: s !== 0,
         tests: points.slice(firstOut).filter((_, i) => i < 3).map((p) => ({ lab: p.lab, test_id: p.test_id })),
       });
     }
   }
+  const box = (n: number, mean: number, sd: number) => ({ n, mean, q1: mean - 0.674 * sd, median: mean + 0.3, q3: mean + 0.674 * sd, whisker_low: mean - 2.5 * sd, whisker_high: mean + 2.6 * sd });
+  const summaries = { Northmill: box(120, 401.2, 12.1), 'Harbor Rolling': box(95, 392.8, 14.3), Eastfield: box(60, 399.5, 10.2) };
 
   return {
     meta: {
@@ -232,9 +248,23 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
       result: {
         alerts,
         change_points: series.slice(0, 1).map((s) => ({ group: s.group, property: s.property, date: s.points[42].date, shift: -21.6, ci: [-28.9, -14.2] })),
-        comparisons: [{ group: { grade: 'G355' }, property: 'rp02_mpa', a: 'Northmill', b: 'Harbor Rolling', difference_mpa: 8.4, p: 0.012 }],
+        comparisons: [
+          {
+            grade: 'G355', property: 'rp02_mpa', test: 'welch-anova', statistic: 11.9, df: [2, 161.2], p: 1.6e-5, summaries,
+            pairwise: [
+              { a: 'Northmill', b: 'Harbor Rolling', method: 'games-howell', difference: 8.4, ci: [3.9, 12.9], level: 0.95, p: 3e-5 },
+              { a: 'Northmill', b: 'Eastfield', method: 'games-howell', difference: 1.7, ci: [-2.3, 5.7], level: 0.95, p: 0.57 },
+              { a: 'Harbor Rolling', b: 'Eastfield', method: 'games-howell', difference: -6.7, ci: [-11.6, -1.8], level: 0.95, p: 0.004 },
+            ],
+          },
+          {
+            grade: 'G355', property: 'rp02_mpa', test: 'kruskal-wallis', statistic: 21.4, df: [2], p: 2.3e-5, summaries,
+            pairwise: [{ a: 'Northmill', b: 'Harbor Rolling', method: 'dunn-holm', p: 1e-5, p_adjusted: 3e-5 }],
+          },
+        ],
       },
       series,
+      new_alerts: 1,
     },
     quality: {
       rejections: [

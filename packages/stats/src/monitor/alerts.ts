@@ -1,11 +1,14 @@
 /**
  * Alerts from chart flags: a contiguous run of flagged points is one episode and raises one
- * alert (first date, the most telling magnitude, and the tests involved), so a sustained shift
- * does not flood the list. Rule names:
+ * alert, so a sustained shift does not flood the list. Every alert says when it would have rung —
+ * `detected_on`, the date of the first point at which the rule fires using only the data up to that
+ * date — and, where the rule estimates one, `change_date`, the estimated start of the shift
+ * (on or before `detected_on`). Rule names:
  *   individuals-below-lcl, individuals-above-ucl, mr-above-ucl, ewma-low, ewma-high,
- *   cusum-low, cusum-high, change-point-down, change-point-up, capability-margin.
- * magnitude_unit is 'sd' (multiples of the baseline sigma) or 'property-units'; every alert
- * also carries magnitude_sd so alerts can be ranked on one scale.
+ *   cusum-low, cusum-high, change-point-down, change-point-up, capability-below-minimum.
+ * magnitude_unit is 'property-units' (a shift or a distance in the property's units) or
+ * 'fraction' (a share of tests); magnitude_sd states a shift in SDs of one test, so alerts can be
+ * ranked on one scale (null where the magnitude is not a shift).
  * Episodes of one rule separated by at most `mergeGap` unflagged points are joined into one
  * (our convention, default 5): a statistic hovering at its limit then raises one alert.
  */
@@ -14,14 +17,16 @@ export const DEFAULT_ALERT_MERGE_GAP = 5;
 
 export interface Alert {
   rule: string;
-  first_date: string;
-  first_index: number;
+  /** Date of the first point at which the rule fires, from the data up to that date. */
+  detected_on: string;
+  /** Estimated start of the shift (CUSUM: after the sum last left zero; change point: its location); null where the rule estimates none. */
+  change_date: string | null;
+  /** Date of the episode's last flagged point. */
   last_date: string;
-  last_index: number;
   /** Signed: negative for a move down. */
   magnitude: number;
-  magnitude_unit: 'sd' | 'property-units';
-  magnitude_sd: number;
+  magnitude_unit: 'property-units' | 'fraction';
+  magnitude_sd: number | null;
   /** Test ids involved, in time order. */
   tests: string[];
   /** What the magnitude is, in words. */

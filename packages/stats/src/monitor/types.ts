@@ -13,9 +13,9 @@ export interface SeriesPoint {
 }
 
 /**
- * Which points estimate the in-control state. Default: the first 30 points, or all if fewer.
- * With `from`/`to` the points dated inside [from, to] (inclusive) are taken; with both a date
- * range and `firstN`, the first `firstN` of the points inside the range.
+ * Which tests the chart's structure is studied on (heat effect, tests per point). Default: the
+ * first 100 tests of the series (all if fewer). With `from`/`to` the tests dated
+ * inside [from, to] (inclusive); with both a date range and `firstN`, the first `firstN` of them.
  */
 export interface BaselineSpec {
   firstN?: number;
@@ -38,8 +38,10 @@ export interface CusumParams {
 }
 
 export interface ChangePointOptions {
-  /** Penalty per added change, on the −2·log-likelihood scale; 'bic' = 2·ln n (default). */
+  /** Penalty per added change of the listing, on the −2·log-likelihood scale; 'bic' = 2·ln n (default). */
   penalty?: number | 'bic';
+  /** A change becomes an alarm when the points up to a date find it at penalty factor·ln t (default 4). */
+  alarmPenaltyFactor?: number;
   /** Shortest segment, in points (default 5). */
   minSegment?: number;
   /** Bootstrap resamples for the location interval (default 199; 0 switches it off). */
@@ -52,25 +54,32 @@ export interface ChangePointOptions {
 
 export interface MonitorOptions {
   baseline?: BaselineSpec;
-  /**
-   * Sigma that standardizes the charts: 'moving-range' (default, MR̄/d2, Montgomery) or
-   * 'sample-sd' (the baseline's SD, including spread between runs of tests such as heats).
-   */
-  sigma?: 'moving-range' | 'sample-sd';
-  /** Default λ = 0.1, L = 2.814 (Lucas & Saccucci 1990: ARL0 ≈ 500); λ = 0.1, L = 2.7 gives ARL0 ≈ 369. */
+  /** Points charted: 'auto' (default; heat means when the baseline shows a heat effect), 'tests' or 'heat-means'. */
+  unit?: 'auto' | 'tests' | 'heat-means';
+  /** Level of the heat-effect F test (default 0.05). */
+  heatEffectAlpha?: number;
+  /** In-control ARL of each one-sided CUSUM, in tests (default 1500). */
+  arl0Tests?: number;
+  /** In-control ARL of each one-sided Shewhart limit, in tests (default 5000). */
+  shewhartArl0Tests?: number;
+  /** Shift the CUSUM is designed for, in SDs of one test (default 1; k is half of it). */
+  designShiftSd?: number;
+  /** Given CUSUM k and h (SDs of a charted point) instead of the design from the ARL. */
+  cusum?: CusumParams;
+  /** Default λ = 0.1, L = 2.814 (Lucas & Saccucci 1990: ARL0 ≈ 500 points). */
   ewma?: EwmaParams;
   /** 'asymptotic' (default; the limits behind the published ARL tables) or 'exact' (time-varying). */
   ewmaLimits?: 'asymptotic' | 'exact';
-  /** Default k = 0.5, h = 5 (Montgomery: ARL0 ≈ 465). */
-  cusum?: CusumParams;
+  /** Points included before charting starts (default 5). */
+  warmup?: number;
   /** Grade minimum of the property, for capability; null or absent: no capability. */
   lowerSpec?: number | null;
-  /** Trailing window of the rolling capability, in points (default 30). */
-  rollingWindow?: number;
-  /** Fewest points in the trailing window before capability is reported (default min(10, window)). */
-  rollingMinPoints?: number;
-  /** Rolling Cpk below this raises 'capability-margin' (default 1.33, common practice). */
-  minCpk?: number;
+  /** Trailing window of the rolling capability, in tests (default 50). */
+  capabilityWindow?: number;
+  /** Fewest tests in the window before capability is reported (default min(20, window)). */
+  capabilityMinTests?: number;
+  /** Modelled share of tests below the minimum above which 'capability-below-minimum' fires (default 0.05). */
+  maxFractionBelow?: number;
   changePoint?: ChangePointOptions;
   /** Episodes of one alert rule at most this many points apart are joined (default 5). */
   alertMergeGap?: number;

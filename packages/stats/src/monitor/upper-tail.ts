@@ -1,10 +1,9 @@
 /**
- * Upper-tail probabilities of the F, chi-square, t and normal distributions, computed from the
+ * Upper-tail probabilities of the F, chi-square and normal distributions, computed from the
  * complementary incomplete beta and gamma functions of @stdlib, so tiny p-values keep their
  * relative precision (1 − CDF would round them to 0).
  *   F(d1, d2):  P(X > x) = I_{d2/(d2 + d1·x)}(d2/2, d1/2)
  *   χ²(k):      P(X > x) = Q(k/2, x/2)
- *   t(ν), two-sided: P(|T| > |t|) = I_{ν/(ν + t²)}(ν/2, 1/2)
  *   normal, two-sided: 2·Φ(−|z|)
  */
 import betainc from '@stdlib/math-base-special-betainc';
@@ -21,11 +20,6 @@ export function chiSquareUpperTail(x: number, k: number): number {
   if (!(x > 0)) return 1;
   if (x === Infinity) return 0;
   return gammainc(x / 2, k / 2, true, true);
-}
-
-export function tTwoSided(t: number, df: number): number {
-  if (!Number.isFinite(t)) return 0;
-  return betainc(df / (df + t * t), df / 2, 0.5, true, false);
 }
 
 export function normalTwoSided(z: number): number {

@@ -9,6 +9,7 @@
  */
 import type { MonitorError } from './types.ts';
 import { fUpperTail } from './upper-tail.ts';
+import { summarizeGroup } from './variance-components.ts';
 
 export interface WelchAnovaResult {
   statistic: number;
@@ -17,13 +18,9 @@ export interface WelchAnovaResult {
   groups: string[];
 }
 
+/** Size, mean and sample variance (n − 1; 0 for fewer than 2 values). */
 export function groupMeanVar(values: ArrayLike<number>): { n: number; mean: number; variance: number } {
-  const n = values.length;
-  let s = 0;
-  for (let i = 0; i < n; i++) s += values[i];
-  const mean = n > 0 ? s / n : NaN;
-  let ss = 0;
-  for (let i = 0; i < n; i++) ss += (values[i] - mean) ** 2;
+  const { n, mean, ss } = summarizeGroup(values);
   return { n, mean, variance: n > 1 ? ss / (n - 1) : 0 };
 }
 
