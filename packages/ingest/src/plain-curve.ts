@@ -8,7 +8,8 @@
  * plumbing) — slower than the database takes to COPY the same points. This reader only takes
  * the plain, valid case: it returns `null` for anything else (not UTF-8, a quote, a carriage
  * return, a row whose cell count differs from the header's, a cell that is not a plain finite
- * decimal number, time going back, too few points, a header problem), and the caller then reads
+ * decimal number or whose converted value is outside the plausible range (plausible-range.ts),
+ * time going back, too few points, a header problem), and the caller then reads
  * the file with the general reader (curve-reader.ts), which finds and reports the rejection. So
  * rejections (codes, lines, columns, messages) are by construction those of the general reader,
  * and an accepted file gives the same values: each cell must match the general reader's number
@@ -29,6 +30,7 @@ import { unitFor } from '@fractile/curves';
 import type { ChannelName } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
 import { splitHeader } from './parse-cell.ts';
+import { inRange } from './plausible-range.ts';
 
 export interface PlainCurve {
   sha256: string;
@@ -189,6 +191,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
         } else v = Number(text.slice(a, b));
         if (!Number.isFinite(v)) return null;
         const value = v * col.def.factor + col.def.offset;
+        if (!inRange(col.def.quantity, value)) return null;
         col.values[n] = value;
         if (col.text) {
           if (col.scale === 0) {
