@@ -8,7 +8,7 @@ import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve, type Des
 import { groupRows, type GroupField } from './aggregate/grouping.ts';
 import { hashOf } from './hash.ts';
 import { currentGrid, loadProperties, type PropertyFilter, type PropertyRow } from './properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
+import { exclusiveStage, findDoneRun, finishRun, saveSettings, STAGE_VERSIONS, startRun } from './runs.ts';
 
 export interface CurvesStageOptions {
   by: GroupField[];
@@ -39,7 +39,12 @@ function sampleEvenly<T>(xs: T[], n: number): T[] {
   return out;
 }
 
-export async function runCurves(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runCurves(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
+  return exclusiveStage(store, 'design', () => curvesAlone(store, opts));
+}
+
+async function curvesAlone(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
   const db = store.db;
   const design: DesignOptions = { ...DEFAULT_DESIGN_OPTIONS, ...opts.design };
   const rows = (await loadProperties(db, opts.filter, { withGrid: true })).filter((r) => r.grid_stress_mpa && r.grid_stress_mpa.length > 0);

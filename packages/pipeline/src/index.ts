@@ -12,3 +12,4 @@ export * from './design-stage.ts';
 export * from './design/index.ts';
 export * from './reduce/task.ts';
 export * from './sample-stage.ts';
+export { csvCell, csvComment, csvLine, csvText, commentJson } from './csv-cell.ts';

@@ -9,7 +9,7 @@ import { correlationMatrices, summarizeProperty, type PropertySummary } from '@f
 import { gradeSettings, type Catalog } from '../catalog.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, findDoneRun, finishRun, saveSettings, STAGE_VERSIONS, startRun } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
 
@@ -93,7 +93,12 @@ export function aggregateRows(rows: PropertyRow[], opts: Omit<AggregateOptions, 
   return { stats, correlations, timings: { group_ms: t1 - t0, summarize_ms: t2 - t1, correlate_ms: t3 - t2 } };
 }
 
-export async function runAggregate(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runAggregate(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
+  return exclusiveStage(store, 'aggregate', () => aggregateAlone(store, opts));
+}
+
+async function aggregateAlone(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
   const db = store.db;
   const t0 = performance.now();
   const rows = await loadProperties(db, opts.filter);

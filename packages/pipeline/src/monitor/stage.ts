@@ -11,7 +11,7 @@ import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import { limitsFor } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, findDoneRun, finishRun, saveSettings, STAGE_VERSIONS, startRun } from '../runs.ts';
 
 export interface DriftOptions {
   by: GroupField[];
@@ -198,7 +198,12 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
   return { alerts, change_points, comparisons, series };
 }
 
-export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
+  return exclusiveStage(store, 'monitor', () => driftAlone(store, opts));
+}
+
+async function driftAlone(store: Store, opts: DriftOptions): Promise<DriftResult> {
   const t0 = performance.now();
   const db = store.db;
   const rows = await loadProperties(db, opts.filter);
