@@ -258,7 +258,12 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
     if (e instanceof NotUtf8Error) return { ok: false, rejection: reject(file, e.line, 0, 'not_utf8', e.message) };
     const err = e as { code?: string; lines?: number; message?: string };
     if (err.code === 'ENOENT' || err.code === 'EISDIR' || err.code === 'EACCES') return { ok: false, rejection: reject(file, 0, 0, err.code === 'ENOENT' ? 'missing_curve_file' : 'unreadable_file', `cannot read the curve file (${err.code})`) };
-    if (e instanceof CsvError) return { ok: false, rejection: reject(file, scanner.physicalLine(err.lines ?? 0), 0, 'malformed_csv', e.message) };
+    if (e instanceof CsvError) {
+      // an unclosed quote is found at the end of the file: name the line after the last row read;
+      // the parser's own count can run past the file's lines (it counts CR and LF inside quotes)
+      const line = e.code === 'CSV_QUOTE_NOT_CLOSED' ? (lastLine || headerLine) + 1 : Math.min(scanner.physicalLine(err.lines ?? 0), scanner.lines);
+      return { ok: false, rejection: reject(file, line, 0, 'malformed_csv', e.message) };
+    }
     throw e;
   }
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };

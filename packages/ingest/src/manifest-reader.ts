@@ -111,7 +111,7 @@ function csvRejection(file: string, err: CsvError, lastLine: number, endLine: nu
     const from = lastLine + 1;
     return reject(file, from, 0, 'malformed_csv', `a quoted cell opened on line ${from} or after is never closed: lines ${from}–${Math.max(from, endLine)} are not read`);
   }
-  const line = (err as unknown as { lines?: number }).lines ?? lastLine + 1;
+  const line = Math.min((err as unknown as { lines?: number }).lines ?? lastLine + 1, Math.max(endLine, lastLine + 1));
   return reject(file, line, 0, 'malformed_csv', `${err.message} (the row is not read)`);
 }
 

@@ -46,8 +46,11 @@ export interface Rejection {
   message: string;
 }
 
+/** messages are cut to this many characters (a parser's message can quote a whole 2 MB field) */
+const MAX_MESSAGE = 400;
+
 export function reject(file: string, line: number, column: number, code: RejectionCode, message: string): Rejection {
-  return { file, line, column, code, message };
+  return { file, line, column, code, message: message.length > MAX_MESSAGE ? message.slice(0, MAX_MESSAGE - 1) + '…' : message };
 }
 
 /** `file:line:column: code: message`, the form printed by the command line. */
