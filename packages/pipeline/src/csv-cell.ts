@@ -3,7 +3,7 @@
  * properties.csv, the design curve exports): RFC 4180 quoting, and formula-safe text.
  *
  * CSV injection (OWASP, "CSV Injection"; common practice): a spreadsheet opens a cell that begins
- * with `=`, `+`, `-` or `@` (or a tab or carriage return, which trimming turns into such a start)
+ * with `=`, `+`, `-` or `@` (or a tab, carriage return or line feed, which trimming turns into such a start)
  * as a live formula. Text cells that begin so — also after leading spaces, and with the
  * full-width forms ＝＋－＠ — are prefixed with an apostrophe, which spreadsheets show as text and
  * hide; numbers stay numbers (`-1.5` is written as it is). Values from the user's files (ids,
