@@ -20,6 +20,7 @@ import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName, ColumnMap } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
+import { ArrayLiteralBuilder } from './array-literal.ts';
 import { emptyTail, parseCell, splitHeader } from './parse-cell.ts';
 import { checkRange } from './plausible-range.ts';
 import type { Rejection } from './rejection.ts';
@@ -45,14 +46,15 @@ export interface CurveChannels {
 }
 
 export type CurveReadResult =
-  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string[]>> }
+  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string>> }
   | { ok: false; rejection: Rejection };
 
 export interface CurveReadOptions {
   /**
-   * also return the cells' text of channels already in canonical units with a decimal point
-   * (factor 1, offset 0): validated decimal numbers that PostgreSQL's float8 input reads to the
-   * same double as Number() (both round correctly), so COPY can reuse them without reformatting.
+   * also return, as a float8[] literal (array-literal.ts), the cells' text of channels already in
+   * canonical units with a decimal point (factor 1, offset 0): validated decimal numbers that
+   * PostgreSQL's float8 input reads to the same double as Number() (both round correctly), so
+   * COPY can reuse them without reformatting.
    * The plain reader also gives text for power-of-ten factors (kN → N; see plain-curve.ts).
    */
   keepText?: boolean;
@@ -83,7 +85,7 @@ interface Bound {
   def: UnitDef;
   values: Growable;
   /** the cells' own text, kept where the unit is already canonical (see `keepText`) */
-  text: string[] | null;
+  text: ArrayLiteralBuilder | null;
 }
 
 class Stop extends Error {
@@ -201,7 +203,7 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
   let prevTime = -Infinity;
 
   const keepTexts = (bs: Bound[]) => {
-    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = [];
+    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = new ArrayLiteralBuilder();
   };
   const consume = async () => {
     let records = 0;
@@ -269,8 +271,8 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };
   if (n < MIN_CURVE_POINTS) return { ok: false, rejection: reject(file, lastLine || headerLine, 0, 'curve_too_short', `${n} points; a curve needs at least ${MIN_CURVE_POINTS}`) };
   const get = (c: ChannelName) => (bound as Bound[]).find((b) => b.channel === c)?.values.take() ?? null;
-  const texts: Partial<Record<ChannelName, string[]>> = {};
-  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text;
+  const texts: Partial<Record<ChannelName, string>> = {};
+  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text.finish();
   return {
     ok: true,
     sha256: scanner.sha256,

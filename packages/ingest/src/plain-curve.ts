@@ -29,6 +29,7 @@ import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
+import { ArrayLiteralBuilder } from './array-literal.ts';
 import { splitHeader } from './parse-cell.ts';
 import { inRange } from './plausible-range.ts';
 
@@ -38,10 +39,10 @@ export interface PlainCurve {
   nPoints: number;
   values: Partial<Record<ChannelName, Float64Array>>;
   /**
-   * when asked for: COPY text of the values of channels whose factor is a power of ten (offset 0),
-   * the cells' own text where the unit is canonical
+   * when asked for: float8[] literals (array-literal.ts) of channels whose factor is a power of
+   * ten (offset 0), of the cells' own text where the unit is canonical
    */
-  texts: Partial<Record<ChannelName, string[]>>;
+  texts: Partial<Record<ChannelName, string>>;
 }
 
 const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
@@ -51,7 +52,7 @@ interface Col {
   channel: ChannelName;
   def: UnitDef;
   values: Float64Array;
-  text: string[] | null;
+  text: ArrayLiteralBuilder | null;
   /** the factor is 10^scale (scale 1…22, offset 0): cells are rewritten by moving the exponent; else 0 */
   scale: number;
 }
@@ -96,7 +97,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) return null;
     const scale = def.offset === 0 ? POW10.indexOf(def.factor) : -1;
-    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? [] : null, scale: Math.max(0, scale) };
+    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? new ArrayLiteralBuilder() : null, scale: Math.max(0, scale) };
     cols.push(col);
     byIndex[i] = col;
   }
@@ -226,10 +227,10 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
   }
   if (n < minPoints) return null;
   const values: Partial<Record<ChannelName, Float64Array>> = {};
-  const texts: Partial<Record<ChannelName, string[]>> = {};
+  const texts: Partial<Record<ChannelName, string>> = {};
   for (const c of cols) {
     values[c.channel] = c.values.slice(0, n);
-    if (c.text) texts[c.channel] = c.text;
+    if (c.text) texts[c.channel] = c.text.finish();
   }
   return { sha256: createHash('sha256').update(buf).digest('hex'), sizeBytes: buf.length, nPoints: n, values, texts };
 }
