@@ -43,6 +43,10 @@ describe('reportFailure', () => {
     expect(printed(sys)).toEqual({ code: 1, text: "fractile: EACCES: permission denied, open 'out/report.html'\n" });
   });
 
+  it('prints a thrown object that is not an Error as its JSON, not [object Object]', () => {
+    expect(printed({ reason: 'closed' })).toEqual({ code: 1, text: 'fractile: {"reason":"closed"}\n' });
+  });
+
   it('keeps the stack of an unexpected error (a defect)', () => {
     const out = printed(new TypeError('x is undefined'));
     expect(out.code).toBe(1);

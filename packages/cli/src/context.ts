@@ -139,6 +139,6 @@ export function reportFailure(err: unknown): number {
     log(`fractile: ${e.message}`);
     return 1;
   }
-  log(`fractile: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
+  log(`fractile: ${err instanceof Error ? (err.stack ?? err.message) : err !== null && typeof err === 'object' ? JSON.stringify(err) : String(err)}`);
   return 1;
 }
