@@ -79,7 +79,7 @@ describe('fractile command line', () => {
     expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
     const csv = fractile('curves', '--db', db, '--format', 'csv');
     expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
-  });
+  }, 300_000); // five commands in turn: on a busy shared machine more than the default two minutes
 
   it('writes the report and the exports, each carrying the caution', () => {
     const out = join(dir, 'out');
