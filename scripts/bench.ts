@@ -7,7 +7,7 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 
 const here = (f: string) => fileURLToPath(new URL(f, import.meta.url));
-for (const b of ['bench-ingest.ts', 'bench-reduce.ts', 'bench-stats.ts', 'bench-drift.ts', 'bench-demo.ts', 'bench-peer.ts', 'bench-cli.ts']) {
+for (const b of ['bench-ingest.ts', 'bench-ingest-large.ts', 'bench-reduce.ts', 'bench-stats.ts', 'bench-drift.ts', 'bench-demo.ts', 'bench-peer.ts', 'bench-cli.ts']) {
   console.log(`\n=== ${b}`);
   const r = spawnSync(process.execPath, ['--import', 'tsx', here(b), ...process.argv.slice(2)], { stdio: 'inherit' });
   if (r.status !== 0) console.log(`(${b} exited with ${r.status})`);

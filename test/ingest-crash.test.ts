@@ -2,7 +2,7 @@
  * Crash safety: the ingest command is killed (SIGKILL) in the middle of a batch; the database
  * then holds only whole tests (every test row with its curve, whole batches), and running the
  * same ingest again yields exactly what one clean run gives: the same tests, content hashes,
- * curve hashes and counts.
+ * curve hashes and counts; the killed run, left `running`, is marked `abandoned` by the next.
  */
 import { spawn } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
@@ -60,6 +60,15 @@ async function contents(target: string) {
   }
 }
 
+async function runStatuses(target: string): Promise<string[]> {
+  const store = await openStore(target);
+  try {
+    return (await store.db.selectFrom('ingest_runs').select('status').orderBy('id').execute()).map((r) => r.status);
+  } finally {
+    await store.close();
+  }
+}
+
 describe.each(testTargets())('ingest killed mid-batch on $name', (tt) => {
   it('leaves whole tests only, and a re-run matches one clean run', async () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'fractile-crash-'));
@@ -83,6 +92,10 @@ describe.each(testTargets())('ingest killed mid-batch on $name', (tt) => {
       expect(summary.duplicates).toBe(partial.counts.tests);
       expect(summary.accepted).toBe(TESTS - partial.counts.tests);
       expect(summary.rejected).toEqual([]);
+
+      // the killed run was left running; the next ingest marked it abandoned
+      const runs = await runStatuses(crashed.target);
+      expect(runs).toEqual(['abandoned', 'completed']);
 
       const once = await ingest(manifest, clean.target, false);
       expect(once.code).toBe(0);

@@ -1,7 +1,8 @@
 /**
  * Cells already in canonical units go to the database as written; the stored float8 must equal
  * Number() of the cell (both are correctly rounded decimal input), including values that
- * underflow, subnormals, signed zero and long decimals.
+ * underflow, subnormals, signed zero and long decimals (kept inside the plausible range of a
+ * strain, ±100, so that none is rejected).
  */
 import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -11,7 +12,7 @@ import { ingestManifests } from '@fractile/ingest';
 import { iterateCurrentTests } from '@fractile/store';
 import { testDatabases } from './support/databases.ts';
 
-const CELLS = ['0', '-0.0', '+1.5', '.25', '3.', '1e-400', '4.9e-324', '0.1000000000000000055511151231257827', '123456789.123456789', '2.2250738585072014e-308', '1E+5', '007.5'];
+const CELLS = ['0', '-0.0', '+1.5', '.25', '3.', '1e-400', '4.9e-324', '0.1000000000000000055511151231257827', '12.3456789123456789012', '2.2250738585072014e-308', '1E+1', '007.5'];
 
 describe.each(testDatabases())('canonical cells on $name', (tdb) => {
   it('are stored as the same double as Number() reads', async () => {

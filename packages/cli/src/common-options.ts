@@ -7,7 +7,7 @@ import type { Command } from 'commander';
 import type { Kysely } from 'kysely';
 import type { Database, Store } from '@fractile/store';
 import type { Catalog, PropertyFilter, PropertyKey } from '@fractile/pipeline';
-import { CliError, dbTarget, type GlobalOptions } from './context.ts';
+import { CliError, dbTarget, log, type GlobalOptions } from './context.ts';
 
 export function addFilterOptions(cmd: Command): Command {
   return cmd
@@ -81,9 +81,16 @@ export async function resolveCatalog(db: Kysely<Database>, file: unknown): Promi
   return currentCatalog(db);
 }
 
+/**
+ * Commands whose writes (cached stage results) need not be kept: on a read-only embedded folder
+ * they work on a temporary copy (store embedded-folder.ts).
+ */
+const READING_COMMANDS = new Set(['tests', 'properties', 'stats', 'curves', 'drift', 'sample', 'report']);
+
 export async function withStore<T>(g: GlobalOptions, fn: (store: Store) => Promise<T>): Promise<T> {
   const { openStore } = await import('@fractile/store');
-  const store = await openStore(dbTarget(g));
+  const store = await openStore(dbTarget(g), { waitMs: g.waitSeconds * 1000, readOnly: READING_COMMANDS.has(g.command) });
+  if (store.readOnlyCopy) log(`fractile: the database folder ${dbTarget(g)} is read-only: reading a temporary copy (results computed now are not kept)`);
   try {
     return await fn(store);
   } finally {

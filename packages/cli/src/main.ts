@@ -14,6 +14,7 @@ export async function buildProgram(): Promise<Command> {
     .version(CODE_VERSION)
     .option('--db <url|path>', 'database: a folder for the embedded database, or postgres://… (default: $DATABASE_URL, else ./.fractile/db)')
     .option('--format <format>', 'output format: table, json or csv', 'table')
+    .option('--wait <seconds>', 'embedded database: wait this long for another fractile process using the folder (default: fail at once, exit 4)')
     .showHelpAfterError()
     // usage errors exit with 2 like every other bad input (commander's own default is 1)
     .exitOverride((err) => process.exit(err.exitCode === 0 ? 0 : 2))

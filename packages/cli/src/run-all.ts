@@ -21,6 +21,7 @@ import {
   type Catalog,
   type GroupField,
 } from '@fractile/pipeline';
+import { csvComment } from '@fractile/pipeline/csv-cell';
 import { renderReport } from '@fractile/report';
 import { log, toCsv } from './context.ts';
 import { writeCurveFiles } from './curve-files.ts';
@@ -63,7 +64,7 @@ function withCaution(kind: string, rows: unknown, provenance: Record<string, unk
 }
 
 const csvWithCaution = (provenance: Record<string, unknown>, text: string) =>
-  `# ${DESIGN_CAUTION}\n` + Object.entries(provenance).map(([k, v]) => `# ${k}: ${typeof v === 'string' ? v : JSON.stringify(v)}\n`).join('') + text;
+  `# ${DESIGN_CAUTION}\n` + Object.entries(provenance).map(([k, v]) => csvComment(k, v) + '\n').join('') + text;
 
 export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResult> {
   const timings: Record<string, number> = {};

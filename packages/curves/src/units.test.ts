@@ -7,7 +7,7 @@
  * 1 in² = 6.4516 E−04 m² (exact), 1 kip = 4.448 222 E+03 N.
  */
 import { describe, expect, it } from 'vitest';
-import { channelToCanonical, IN_MM, KSI_MPA, LBF_N, lookupUnit, toCanonical, unitFor } from './units.ts';
+import { caseHint, channelToCanonical, IN_MM, KSI_MPA, LBF_N, lookupUnit, toCanonical, unitFor } from './units.ts';
 
 /** |a − b| ≤ rel·|b| */
 const relClose = (a: number, b: number, rel: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(rel * Math.abs(b));
@@ -62,10 +62,20 @@ describe('NIST SP 811 factors', () => {
 });
 
 describe('unit lookup', () => {
-  it('matches names ignoring case and surrounding space', () => {
-    expect(lookupUnit(' KN ')!.factor).toBe(1000);
-    expect(lookupUnit('MPA')!.canonical).toBe('MPa');
-    expect(unitFor('area', 'MM²')!.factor).toBe(1);
+  it('matches symbols exactly (SI symbols are case-sensitive), ignoring surrounding space', () => {
+    expect(lookupUnit(' kN ')!.factor).toBe(1000);
+    expect(lookupUnit('MPa')!.canonical).toBe('MPa');
+    expect(unitFor('area', 'mm²')!.factor).toBe(1);
+    // SI Brochure (9th ed., 2019) §5.2: prefix symbols are case-sensitive — m (milli) is not M
+    // (mega), so mPa is not MPa and Mm is not mm; neither is read as the other
+    for (const wrong of ['mPa', 'MPA', 'mpa', 'Mm', 'MM', 'KN', 'kn', 'n', 'S', 'gpa']) expect(lookupUnit(wrong), wrong).toBeNull();
+    expect(unitFor('stress', 'mPa')).toBeNull();
+    expect(unitFor('length', 'Mm')).toBeNull();
+    expect(caseHint('mPa')).toBe('MPa');
+    expect(caseHint('Mm')).toBe('mm');
+    expect(caseHint('KN')).toBe('kN');
+    expect(caseHint('MPa')).toBeNull();
+    expect(caseHint('furlong')).toBeNull();
   });
 
   it('returns null for an unknown unit or one of another quantity, never a guess', () => {

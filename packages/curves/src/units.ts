@@ -7,8 +7,12 @@
  * lbf and inch factors, not rounded), t[°C] = (t[°F] − 32)/1.8,
  * t[°C] = T[K] − 273.15.
  *
- * Unit names are matched case-insensitively after trimming; an unknown unit returns `null`, never
- * a guess.
+ * Unit symbols are case-sensitive, as SI prefixes and symbols are (the SI Brochure, 9th edition,
+ * 2019, §5: `mPa` is the millipascal, `MPa` the megapascal; `Mm` is the megametre): they are
+ * matched exactly after trimming, in the spellings listed below (the SI symbol, and the customary
+ * `N/mm2`, `mm^2`, `um`, `degC`, `lbf`, `kip`, `psi`, `ksi`, `in` spellings). An unknown unit —
+ * including a known one in the wrong case — returns `null`, never a guess; `caseHint` names the
+ * unit meant where only the case differs.
  */
 
 export type Quantity = 'force' | 'length' | 'area' | 'stress' | 'strain' | 'time' | 'temperature' | 'percent';
@@ -29,10 +33,13 @@ export const KSI_MPA = (1000 * LBF_N) / (IN_MM * IN_MM);
 
 const linear = (quantity: Quantity, canonical: string, factor: number): UnitDef => ({ quantity, factor, offset: 0, canonical });
 
+const C_DEF: UnitDef = { quantity: 'temperature', factor: 1, offset: 0, canonical: 'C' };
+const F_DEF: UnitDef = { quantity: 'temperature', factor: 1 / 1.8, offset: -32 / 1.8, canonical: 'C' };
+
 const UNITS: Record<string, UnitDef> = {
   // force → N
-  n: linear('force', 'N', 1),
-  kn: linear('force', 'N', 1000),
+  N: linear('force', 'N', 1),
+  kN: linear('force', 'N', 1000),
   lbf: linear('force', 'N', LBF_N),
   kip: linear('force', 'N', 1000 * LBF_N),
   kips: linear('force', 'N', 1000 * LBF_N),
@@ -40,6 +47,8 @@ const UNITS: Record<string, UnitDef> = {
   mm: linear('length', 'mm', 1),
   m: linear('length', 'mm', 1000),
   um: linear('length', 'mm', 1e-3),
+  'µm': linear('length', 'mm', 1e-3),
+  'μm': linear('length', 'mm', 1e-3),
   in: linear('length', 'mm', IN_MM),
   // area → mm²
   mm2: linear('area', 'mm2', 1),
@@ -49,13 +58,13 @@ const UNITS: Record<string, UnitDef> = {
   'in^2': linear('area', 'mm2', IN_MM * IN_MM),
   'in²': linear('area', 'mm2', IN_MM * IN_MM),
   // stress → MPa
-  mpa: linear('stress', 'MPa', 1),
-  'n/mm2': linear('stress', 'MPa', 1),
-  'n/mm^2': linear('stress', 'MPa', 1),
-  'n/mm²': linear('stress', 'MPa', 1),
-  gpa: linear('stress', 'MPa', 1000),
-  kpa: linear('stress', 'MPa', 1e-3),
-  pa: linear('stress', 'MPa', 1e-6),
+  MPa: linear('stress', 'MPa', 1),
+  'N/mm2': linear('stress', 'MPa', 1),
+  'N/mm^2': linear('stress', 'MPa', 1),
+  'N/mm²': linear('stress', 'MPa', 1),
+  GPa: linear('stress', 'MPa', 1000),
+  kPa: linear('stress', 'MPa', 1e-3),
+  Pa: linear('stress', 'MPa', 1e-6),
   psi: linear('stress', 'MPa', KSI_MPA / 1000),
   ksi: linear('stress', 'MPa', KSI_MPA),
   // strain → mm/mm
@@ -67,18 +76,24 @@ const UNITS: Record<string, UnitDef> = {
   ms: linear('time', 's', 1e-3),
   min: linear('time', 's', 60),
   // temperature → °C
-  c: { quantity: 'temperature', factor: 1, offset: 0, canonical: 'C' },
-  '°c': { quantity: 'temperature', factor: 1, offset: 0, canonical: 'C' },
-  degc: { quantity: 'temperature', factor: 1, offset: 0, canonical: 'C' },
-  f: { quantity: 'temperature', factor: 1 / 1.8, offset: -32 / 1.8, canonical: 'C' },
-  '°f': { quantity: 'temperature', factor: 1 / 1.8, offset: -32 / 1.8, canonical: 'C' },
-  degf: { quantity: 'temperature', factor: 1 / 1.8, offset: -32 / 1.8, canonical: 'C' },
-  k: { quantity: 'temperature', factor: 1, offset: -273.15, canonical: 'C' },
+  C: C_DEF,
+  '°C': C_DEF,
+  degC: C_DEF,
+  F: F_DEF,
+  '°F': F_DEF,
+  degF: F_DEF,
+  K: { quantity: 'temperature', factor: 1, offset: -273.15, canonical: 'C' },
 };
 
 /** The unit's definition, or `null` if the unit is not known. */
 export function lookupUnit(unit: string): UnitDef | null {
-  return UNITS[unit.trim().toLowerCase()] ?? null;
+  return Object.hasOwn(UNITS, unit.trim()) ? UNITS[unit.trim()] : null;
+}
+
+/** The listed spelling that differs from `unit` only in case (`mpa` → `MPa`), or `null`. */
+export function caseHint(unit: string): string | null {
+  const lower = unit.trim().toLowerCase();
+  return Object.keys(UNITS).find((k) => k.toLowerCase() === lower && k !== unit.trim()) ?? null;
 }
 
 /**
@@ -86,9 +101,9 @@ export function lookupUnit(unit: string): UnitDef | null {
  * quantity: `%` counts as a strain unit and also as a plain percentage).
  */
 export function unitFor(quantity: Quantity, unit: string): UnitDef | null {
-  const key = unit.trim().toLowerCase();
+  const key = unit.trim();
   if (quantity === 'percent') return key === '%' ? { quantity: 'percent', factor: 1, offset: 0, canonical: '%' } : null;
-  const def = UNITS[key];
+  const def = lookupUnit(key);
   return def && def.quantity === quantity ? def : null;
 }
 

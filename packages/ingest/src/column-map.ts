@@ -14,6 +14,7 @@
  */
 import type { Quantity, UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
+import { unknownUnitMessage } from './unit-message.ts';
 
 export type ChannelName = 'time' | 'force' | 'extension' | 'crosshead' | 'stress' | 'strain';
 export const CHANNELS: readonly ChannelName[] = ['time', 'force', 'extension', 'crosshead', 'stress', 'strain'];
@@ -84,7 +85,7 @@ export function parseColumnMap(value: unknown): MapResult {
     } else return bad(`channel "${name}": "column" must be a header name or a 1-based index`);
     if (typeof s.unit !== 'string') return bad(`channel "${name}": "unit" is required`);
     const def = unitFor(CHANNEL_QUANTITY[name as ChannelName], s.unit);
-    if (!def) return bad(`channel "${name}": unknown unit "${s.unit}" for a ${CHANNEL_QUANTITY[name as ChannelName]}`);
+    if (!def) return bad(`channel "${name}": ${unknownUnitMessage(s.unit, name, CHANNEL_QUANTITY[name as ChannelName])}`);
     channels[name as ChannelName] = { column, unit: s.unit, def };
   }
   if (Object.keys(channels).length === 0) return bad('"channels" must name at least one channel');

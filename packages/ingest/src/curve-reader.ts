@@ -15,16 +15,20 @@
 import { createReadStream } from 'node:fs';
 import { open } from 'node:fs/promises';
 import { pipeline } from 'node:stream/promises';
-import { parse } from 'csv-parse';
+import { CsvError, parse } from 'csv-parse';
 import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName, ColumnMap } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
-import { parseCell, splitHeader } from './parse-cell.ts';
+import { ArrayLiteralBuilder } from './array-literal.ts';
+import { emptyTail, parseCell, splitHeader } from './parse-cell.ts';
+import { checkRange } from './plausible-range.ts';
 import type { Rejection } from './rejection.ts';
 import { reject } from './rejection.ts';
 import { readPlainCurve } from './plain-curve.ts';
 import { NotUtf8Error, SourceScanner } from './source-scanner.ts';
+import { showCell } from './text-cell.ts';
+import { unknownUnitMessage } from './unit-message.ts';
 
 export const MIN_CURVE_POINTS = 20;
 
@@ -42,14 +46,15 @@ export interface CurveChannels {
 }
 
 export type CurveReadResult =
-  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string[]>> }
+  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string>> }
   | { ok: false; rejection: Rejection };
 
 export interface CurveReadOptions {
   /**
-   * also return the cells' text of channels already in canonical units with a decimal point
-   * (factor 1, offset 0): validated decimal numbers that PostgreSQL's float8 input reads to the
-   * same double as Number() (both round correctly), so COPY can reuse them without reformatting.
+   * also return, as a float8[] literal (array-literal.ts), the cells' text of channels already in
+   * canonical units with a decimal point (factor 1, offset 0): validated decimal numbers that
+   * PostgreSQL's float8 input reads to the same double as Number() (both round correctly), so
+   * COPY can reuse them without reformatting.
    * The plain reader also gives text for power-of-ten factors (kN → N; see plain-curve.ts).
    */
   keepText?: boolean;
@@ -80,7 +85,7 @@ interface Bound {
   def: UnitDef;
   values: Growable;
   /** the cells' own text, kept where the unit is already canonical (see `keepText`) */
-  text: string[] | null;
+  text: ArrayLiteralBuilder | null;
 }
 
 class Stop extends Error {
@@ -98,7 +103,7 @@ function bindDefault(file: string, line: number, header: string[]): Bound[] {
     if (bound.some((b) => b.channel === channel)) throw new Stop(reject(file, line, i + 1, 'malformed_csv', `channel "${channel}" appears twice in the header`));
     if (unit === null) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `channel "${channel}" has no unit: write ${channel}[unit]`));
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
-    if (!def) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `unknown unit "${unit}" for ${channel} (a ${CHANNEL_QUANTITY[channel]})`));
+    if (!def) throw new Stop(reject(file, line, i + 1, 'unknown_unit', unknownUnitMessage(unit, channel, CHANNEL_QUANTITY[channel])));
     bound.push({ channel, index: i, def, values: new Growable(), text: null });
   });
   return bound;
@@ -124,14 +129,16 @@ function bindMapped(file: string, line: number, header: string[] | null, map: Co
   return bound;
 }
 
-function checkChannels(file: string, line: number, bound: Bound[]): void {
+function checkChannels(file: string, line: number, bound: Bound[], header: string[] | null = null): void {
   const has = (c: ChannelName) => bound.some((b) => b.channel === c);
   // force with crosshead travel only is a usable record: its modulus is flagged as not
   // representative of the material and the yield values use the fitted slope (reduce stage)
   if ((has('force') && (has('extension') || has('crosshead'))) || (has('stress') && has('strain'))) return;
   const found = bound.map((b) => b.channel).join(', ') || 'none';
   const why = has('force') ? 'force without extension or crosshead, and no stress and strain' : has('stress') || has('strain') ? 'stress and strain must both be given' : 'no force and extension, and no stress and strain';
-  throw new Stop(reject(file, line, 0, 'missing_channel', `${why} (channels found: ${found})`));
+  const other = header?.length === 1 ? ([';', '\t'].find((d) => header[0].includes(d)) ?? null) : null;
+  const hint = other ? `; the header looks ${other === ';' ? 'semicolon' : 'tab'}-delimited: read such files through a column map (--map)` : '';
+  throw new Stop(reject(file, line, 0, 'missing_channel', `${why} (channels found: ${found})${hint}`));
 }
 
 /**
@@ -189,12 +196,14 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
   const headerWanted = !(map && map.headerRow === 0);
   let headerLine = 0;
   let lastLine = 0;
+  /** cells of the header (or, without one, of the first data row): every row must have as many */
+  let cells = 0;
   let n = 0;
   let time: Bound | undefined;
   let prevTime = -Infinity;
 
   const keepTexts = (bs: Bound[]) => {
-    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = [];
+    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = new ArrayLiteralBuilder();
   };
   const consume = async () => {
     let records = 0;
@@ -203,23 +212,30 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
       if (!bound) {
         headerLine = line;
         bound = map ? bindMapped(file, line, rec, map) : bindDefault(file, line, rec);
-        checkChannels(file, line, bound);
+        checkChannels(file, line, bound, rec);
+        cells = rec.length;
         time = bound.find((b) => b.channel === 'time');
         keepTexts(bound);
         continue;
       }
       if (map && line < map.dataRow) continue;
       lastLine = line;
+      if (cells === 0) cells = rec.length;
+      if (rec.length > cells && !emptyTail(rec, cells)) throw new Stop(reject(file, line, cells + 1, 'wrong_cell_count', `the row has ${rec.length} cells, the ${headerWanted ? 'header' : 'first row'} ${cells}: a decimal comma in a comma-delimited file? (read such files through a column map with "decimal": ",")`));
       for (const b of bound) {
         const r = parseCell(rec[b.index], decimal);
         if (!r.ok) {
-          const what = r.code === 'missing_value' ? (rec.length <= b.index ? 'row ends before this column (truncated line?)' : 'empty cell') : r.code === 'not_finite' ? `not a finite number: "${rec[b.index]}"` : `not a number: "${rec[b.index]}"`;
+          const what = r.code === 'missing_value' ? (rec.length <= b.index ? 'row ends before this column (truncated line?)' : 'empty cell') : r.code === 'not_finite' ? `not a finite number: ${showCell(rec[b.index])}` : `not a number: ${showCell(rec[b.index])}`;
           throw new Stop(reject(file, line, b.index + 1, r.code, `${b.channel}: ${what}`));
         }
-        b.values.push(r.value * b.def.factor + b.def.offset);
+        const value = r.value * b.def.factor + b.def.offset;
+        const range = checkRange(b.def.quantity, value);
+        if (range) throw new Stop(reject(file, line, b.index + 1, 'out_of_range', `${b.channel}: ${showCell(rec[b.index])} is ${range}`));
+        b.values.push(value);
         // a token that underflows (1e-400) would be an error for float8 input: write the value then
         if (b.text) b.text.push(r.value === 0 || Math.abs(r.value) < 1e-300 ? (r.value === 0 && 1 / r.value < 0 ? '-0' : String(r.value)) : rec[b.index].trim());
       }
+      if (rec.length < cells) throw new Stop(reject(file, line, rec.length + 1, 'wrong_cell_count', `the row has ${rec.length} cells, the ${headerWanted ? 'header' : 'first row'} ${cells}: a missing delimiter or a cut row`));
       if (time) {
         const t = time.values.buf[n];
         if (t < prevTime) throw new Stop(reject(file, line, time.index + 1, 'time_not_monotonic', `time decreases from ${prevTime} s to ${t} s`));
@@ -244,14 +260,19 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
     if (e instanceof NotUtf8Error) return { ok: false, rejection: reject(file, e.line, 0, 'not_utf8', e.message) };
     const err = e as { code?: string; lines?: number; message?: string };
     if (err.code === 'ENOENT' || err.code === 'EISDIR' || err.code === 'EACCES') return { ok: false, rejection: reject(file, 0, 0, err.code === 'ENOENT' ? 'missing_curve_file' : 'unreadable_file', `cannot read the curve file (${err.code})`) };
-    if (typeof err.code === 'string' && err.code.startsWith('CSV_')) return { ok: false, rejection: reject(file, scanner.physicalLine(err.lines ?? 0), 0, 'malformed_csv', err.message ?? err.code) };
+    if (e instanceof CsvError) {
+      // an unclosed quote is found at the end of the file: name the line after the last row read;
+      // the parser's own count can run past the file's lines (it counts CR and LF inside quotes)
+      const line = e.code === 'CSV_QUOTE_NOT_CLOSED' ? (lastLine || headerLine) + 1 : Math.min(scanner.physicalLine(err.lines ?? 0), scanner.lines);
+      return { ok: false, rejection: reject(file, line, 0, 'malformed_csv', e.message) };
+    }
     throw e;
   }
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };
   if (n < MIN_CURVE_POINTS) return { ok: false, rejection: reject(file, lastLine || headerLine, 0, 'curve_too_short', `${n} points; a curve needs at least ${MIN_CURVE_POINTS}`) };
   const get = (c: ChannelName) => (bound as Bound[]).find((b) => b.channel === c)?.values.take() ?? null;
-  const texts: Partial<Record<ChannelName, string[]>> = {};
-  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text;
+  const texts: Partial<Record<ChannelName, string>> = {};
+  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text.finish();
   return {
     ok: true,
     sha256: scanner.sha256,

@@ -3,12 +3,12 @@
  * written as a float8[] array literal. Runs in a worker thread (curve-worker.mjs) or in-process;
  * only the literals cross back, so the main thread only forwards text to the database.
  *
- * The literal is written here rather than with the store's encoder so that a worker thread loads
- * nothing of the database drivers (its memory stays small). Numbers use JavaScript's shortest
- * round-trip form (exact for float8); -0 keeps its sign; values are finite (the reader rejects
- * anything else).
+ * The literal is written here (array-literal.ts) rather than with the store's encoder so that a
+ * worker thread loads nothing of the database drivers (its memory stays small); where the reader
+ * kept the cells' own text as a literal, that is used as it is.
  */
 import type { ChannelName, ColumnMap } from './column-map.ts';
+import { float8ArrayLiteral } from './array-literal.ts';
 import { readCurveFile } from './curve-reader.ts';
 import type { Rejection } from './rejection.ts';
 
@@ -22,23 +22,11 @@ export type CurveTaskResult =
   | { ok: true; sha256: string; sizeBytes: number; nPoints: number; literals: Record<ChannelName, string | null> }
   | { ok: false; rejection: Rejection };
 
-/** `{v0,v1,…}` of a finite Float64Array. */
-export function float8ArrayLiteral(a: Float64Array): string {
-  const n = a.length;
-  if (n === 0) return '{}';
-  const parts: string[] = new Array(n);
-  for (let i = 0; i < n; i++) {
-    const v = a[i];
-    parts[i] = v === 0 && 1 / v < 0 ? '-0' : String(v);
-  }
-  return '{' + parts.join(',') + '}';
-}
-
 export async function runCurveTask(task: CurveTask): Promise<CurveTaskResult> {
   const r = await readCurveFile(task.absPath, task.displayPath, task.map, { keepText: true });
   if (!r.ok) return r;
   const c = r.channels;
-  const lit = (a: Float64Array | null, text: string[] | undefined) => (a === null ? null : text ? '{' + text.join(',') + '}' : float8ArrayLiteral(a));
+  const lit = (a: Float64Array | null, text: string | undefined) => (a === null ? null : (text ?? float8ArrayLiteral(a)));
   return {
     ok: true,
     sha256: r.sha256,

@@ -1,5 +1,9 @@
 export { ingestManifests } from './ingest-manifests.ts';
 export type { IngestOptions, IngestSummary, ManifestInput } from './ingest-manifests.ts';
+export { classify } from './classify.ts';
+export type { Decision, StoredTest } from './classify.ts';
+export { checkRange, PLAUSIBLE_BOUND } from './plausible-range.ts';
+export { MAX_TEXT_CHARS } from './text-cell.ts';
 export { REJECTION_CODES, formatRejection, reject, RejectionError } from './rejection.ts';
 export type { Rejection, RejectionCode } from './rejection.ts';
 export { parseColumnMap, parseColumnMapText, CHANNELS } from './column-map.ts';

@@ -11,13 +11,16 @@
 import { createReadStream, existsSync, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import { parse } from 'csv-parse';
+import { CsvError, parse } from 'csv-parse';
 import type { Quantity, SpecimenShape, UnitDef } from '@fractile/curves';
 import { crossSectionArea, SPECIMEN_SHAPES, unitFor } from '@fractile/curves';
-import { parseCell, parseIsoDate, splitHeader } from './parse-cell.ts';
+import { emptyTail, parseCell, parseIsoDate, splitHeader } from './parse-cell.ts';
+import { checkRange } from './plausible-range.ts';
 import type { Rejection } from './rejection.ts';
 import { reject } from './rejection.ts';
 import { NotUtf8Error, SourceScanner } from './source-scanner.ts';
+import { showCell, textProblem } from './text-cell.ts';
+import { unknownUnitMessage } from './unit-message.ts';
 
 export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
 export const YIELD_DEFINITIONS: readonly YieldDefinition[] = ['rp0.2', 'rt0.5', 'reh', 'rel'];
@@ -102,23 +105,56 @@ export function insideFolder(folder: string, target: string): boolean {
   return true;
 }
 
+/** A row the CSV parser could not read (a stray or unclosed quote), as a rejection. */
+function csvRejection(file: string, err: CsvError, lastLine: number, endLine: number): Rejection {
+  if (err.code === 'CSV_QUOTE_NOT_CLOSED') {
+    const from = lastLine + 1;
+    return reject(file, from, 0, 'malformed_csv', `a quoted cell opened on line ${from} or after is never closed: lines ${from}–${Math.max(from, endLine)} are not read`);
+  }
+  const line = Math.min((err as unknown as { lines?: number }).lines ?? lastLine + 1, Math.max(endLine, lastLine + 1));
+  return reject(file, line, 0, 'malformed_csv', `${err.message} (the row is not read)`);
+}
+
 /**
  * Streams the manifest at `manifestPath` (as given: names the file in rejections). Throws
- * NotUtf8Error (the caller checks the file with scanFile first).
+ * NotUtf8Error (the caller checks the file with scanFile first). A row the CSV parser cannot
+ * read (a stray or unclosed quote) is a rejection at its line; the parser goes on after it.
  */
 export async function* readManifest(manifestPath: string): AsyncGenerator<ManifestItem> {
   const file = manifestPath;
   const folder = path.dirname(path.resolve(manifestPath));
   const displayFolder = path.dirname(manifestPath);
-  const parser = parse({ comment: '#', comment_no_infix: true, relax_column_count: true, skip_empty_lines: true, trim: true, info: true });
-  const feeding = pipeline(createReadStream(manifestPath), new SourceScanner(0), parser);
+  const skipped: CsvError[] = [];
+  const parser = parse({
+    comment: '#',
+    comment_no_infix: true,
+    relax_column_count: true,
+    skip_empty_lines: true,
+    trim: true,
+    info: true,
+    skip_records_with_error: true,
+    on_skip: (err) => {
+      if (err) skipped.push(err);
+      return undefined;
+    },
+  });
+  const scanner = new SourceScanner(0);
+  const feeding = pipeline(createReadStream(manifestPath), scanner, parser);
   feeding.catch(() => {});
   let cols: Map<string, Col> | null = null;
+  let headerCells = 0;
   let headerLine = 0;
+  let lastLine = 0;
+  // rejections of unreadable rows, each given out before the first record after it
+  const pending = function* (before: number): Generator<ManifestItem> {
+    while (skipped.length && ((skipped[0] as unknown as { lines?: number }).lines ?? 0) < before) yield { kind: 'rejection', rejection: csvRejection(file, skipped.shift()!, lastLine, scanner.lines) };
+  };
   try {
     for await (const item of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
       const line = item.info.lines;
       const rec = item.record;
+      yield* pending(line);
+      lastLine = line;
       if (!cols) {
         headerLine = line;
         const header = new Map<string, Col>();
@@ -132,7 +168,7 @@ export async function* readManifest(manifestPath: string): AsyncGenerator<Manife
           else if (kind === 'text') header.set(name, { index: i, def: null });
           else {
             const def = unit === null ? null : unitFor(kind, unit);
-            if (!def) bad = reject(file, line, i + 1, 'unknown_unit', unit === null ? `column "${name}" needs a unit in brackets, e.g. ${name}[${kind === 'percent' ? '%' : kind === 'temperature' ? 'C' : kind === 'stress' ? 'MPa' : kind === 'area' ? 'mm2' : 'mm'}]` : `unknown unit "${unit}" for ${name} (a ${kind})`);
+            if (!def) bad = reject(file, line, i + 1, 'unknown_unit', unit === null ? `column "${name}" needs a unit in brackets, e.g. ${name}[${kind === 'percent' ? '%' : kind === 'temperature' ? 'C' : kind === 'stress' ? 'MPa' : kind === 'area' ? 'mm2' : 'mm'}]` : unknownUnitMessage(unit, name, kind));
             else header.set(name, { index: i, def });
           }
         });
@@ -143,11 +179,13 @@ export async function* readManifest(manifestPath: string): AsyncGenerator<Manife
           return;
         }
         cols = header;
+        headerCells = rec.length;
         continue;
       }
-      yield readRow(file, folder, displayFolder, line, rec, cols);
+      yield readRow(file, folder, displayFolder, line, rec, cols, headerCells);
     }
     await feeding;
+    yield* pending(Infinity);
   } finally {
     parser.destroy();
   }
@@ -160,7 +198,14 @@ class RowError extends Error {
   }
 }
 
-function readRow(file: string, folder: string, displayFolder: string, line: number, rec: string[], cols: Map<string, Col>): ManifestItem {
+function readRow(file: string, folder: string, displayFolder: string, line: number, rec: string[], cols: Map<string, Col>, headerCells: number): ManifestItem {
+  if (rec.length < headerCells || (rec.length > headerCells && !emptyTail(rec, headerCells))) {
+    // cells shift under the header when a value holds an unquoted comma (a decimal comma, "Acme,
+    // Inc") or a delimiter went missing: every value after it would be read from the wrong column
+    const more = rec.length > headerCells;
+    const why = more ? 'an unquoted comma in a value (a decimal comma?) shifts the cells' : 'a missing delimiter or a cut row shifts the cells';
+    return { kind: 'rejection', rejection: reject(file, line, (more ? headerCells : rec.length) + 1, 'wrong_cell_count', `the row has ${rec.length} cells, the header ${headerCells}: ${why}; quote values that contain commas`) };
+  }
   const colOf = (name: string) => (cols.get(name)?.index ?? -1) + 1;
   const fail = (name: string, code: Rejection['code'], message: string): never => {
     throw new RowError(reject(file, line, colOf(name), code, message));
@@ -169,7 +214,10 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
     const c = cols.get(name);
     if (!c) return null;
     const v = (rec[c.index] ?? '').trim();
-    return v === '' ? null : v;
+    if (v === '') return null;
+    const problem = textProblem(v);
+    if (problem) fail(name, problem.code, `${name}: ${problem.message}`);
+    return v;
   };
   const required = (name: string): string => text(name) ?? fail(name, 'missing_value', `${name} is required`);
   const quantity = (name: string): number | null => {
@@ -178,9 +226,11 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
     const raw = rec[c.index];
     if (raw === undefined || raw.trim() === '') return null;
     const r = parseCell(raw);
-    if (!r.ok) return fail(name, r.code, r.code === 'not_finite' ? `${name}: not a finite number: "${raw}"` : `${name}: not a number: "${raw}"`);
+    if (!r.ok) return fail(name, r.code, r.code === 'not_finite' ? `${name}: not a finite number: ${showCell(raw)}` : `${name}: not a number: ${showCell(raw)}`);
     const v = r.value * c.def!.factor + c.def!.offset;
-    if (DIMENSIONS.has(name) && v <= 0) return fail(name, 'nonpositive_dimension', `${name} must be > 0, got ${raw}`);
+    if (DIMENSIONS.has(name) && v <= 0) return fail(name, 'nonpositive_dimension', `${name} must be > 0, got ${showCell(raw)}`);
+    const range = checkRange(c.def!.quantity, v);
+    if (range) return fail(name, 'out_of_range', `${name}: ${showCell(raw)} is ${range}`);
     return v;
   };
 
@@ -190,12 +240,12 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
     const grade = required('grade');
     const supplier = required('supplier');
     const dateRaw = required('tested_on');
-    const testedOn = parseIsoDate(dateRaw) ?? fail('tested_on', 'invalid_date', `tested_on: not an ISO 8601 date (YYYY-MM-DD): "${dateRaw}"`);
+    const testedOn = parseIsoDate(dateRaw) ?? fail('tested_on', 'invalid_date', `tested_on: not an ISO 8601 date (YYYY-MM-DD): ${showCell(dateRaw)}`);
     const shapeRaw = text('shape');
     let shape: SpecimenShape | null = null;
     if (shapeRaw !== null) {
       const s = shapeRaw.toLowerCase();
-      if (!(SPECIMEN_SHAPES as readonly string[]).includes(s)) fail('shape', 'unknown_shape', `unknown shape "${shapeRaw}" (round, flat or area)`);
+      if (!(SPECIMEN_SHAPES as readonly string[]).includes(s)) fail('shape', 'unknown_shape', `unknown shape ${showCell(shapeRaw)} (round, flat or area)`);
       shape = s as SpecimenShape;
     }
     const diameterMm = quantity('diameter');
@@ -227,7 +277,7 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
     let yieldDefinition: YieldDefinition | null = null;
     if (defRaw !== null) {
       const d = defRaw.toLowerCase();
-      if (!(YIELD_DEFINITIONS as readonly string[]).includes(d)) fail('yield_definition', 'unknown_yield_definition', `unknown yield_definition "${defRaw}" (rp0.2, rt0.5, reh or rel)`);
+      if (!(YIELD_DEFINITIONS as readonly string[]).includes(d)) fail('yield_definition', 'unknown_yield_definition', `unknown yield_definition ${showCell(defRaw)} (rp0.2, rt0.5, reh or rel)`);
       yieldDefinition = d as YieldDefinition;
     }
     if (yieldMpa !== null && yieldDefinition === null) fail(cols.has('yield_definition') ? 'yield_definition' : 'yield', 'missing_value', 'yield_definition is required where yield is given (rp0.2, rt0.5, reh or rel)');
@@ -238,14 +288,14 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
     let curve: ManifestRecord['curve'] = null;
     if (curveRel !== null) {
       const absPath = path.resolve(folder, curveRel);
-      if (path.isAbsolute(curveRel) || !insideFolder(folder, absPath)) fail('curve', 'path_escapes_folder', `curve path "${curveRel}" leads outside the manifest's folder`);
+      if (path.isAbsolute(curveRel) || !insideFolder(folder, absPath)) fail('curve', 'path_escapes_folder', `curve path ${showCell(curveRel)} leads outside the manifest's folder`);
       let isFile = false;
       try {
         isFile = statSync(absPath).isFile();
       } catch {
         isFile = false;
       }
-      if (!isFile) fail('curve', 'missing_curve_file', `curve file "${curveRel}" not found`);
+      if (!isFile) fail('curve', 'missing_curve_file', `curve file ${showCell(curveRel)} not found`);
       curve = { relPath: curveRel, absPath, displayPath: path.join(displayFolder, curveRel) };
     }
     if (!curve && !summary) fail(cols.has('curve') ? 'curve' : 'test_id', 'missing_value', 'a record needs a curve file or summary values (yield, tensile, elongations)');

@@ -41,3 +41,9 @@ export function splitHeader(cell: string): { name: string; unit: string | null }
   if (m) return { name: m[1].toLowerCase(), unit: m[2] };
   return { name: cell.trim().toLowerCase(), unit: null };
 }
+
+/** Whether every cell from `from` on is empty (a trailing delimiter, which shifts no value). */
+export function emptyTail(rec: readonly string[], from: number): boolean {
+  for (let i = from; i < rec.length; i++) if (rec[i].trim() !== '') return false;
+  return true;
+}

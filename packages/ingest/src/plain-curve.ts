@@ -8,7 +8,8 @@
  * plumbing) — slower than the database takes to COPY the same points. This reader only takes
  * the plain, valid case: it returns `null` for anything else (not UTF-8, a quote, a carriage
  * return, a row whose cell count differs from the header's, a cell that is not a plain finite
- * decimal number, time going back, too few points, a header problem), and the caller then reads
+ * decimal number or whose converted value is outside the plausible range (plausible-range.ts),
+ * time going back, too few points, a header problem), and the caller then reads
  * the file with the general reader (curve-reader.ts), which finds and reports the rejection. So
  * rejections (codes, lines, columns, messages) are by construction those of the general reader,
  * and an accepted file gives the same values: each cell must match the general reader's number
@@ -28,7 +29,9 @@ import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
+import { ArrayLiteralBuilder } from './array-literal.ts';
 import { splitHeader } from './parse-cell.ts';
+import { inRange } from './plausible-range.ts';
 
 export interface PlainCurve {
   sha256: string;
@@ -36,10 +39,10 @@ export interface PlainCurve {
   nPoints: number;
   values: Partial<Record<ChannelName, Float64Array>>;
   /**
-   * when asked for: COPY text of the values of channels whose factor is a power of ten (offset 0),
-   * the cells' own text where the unit is canonical
+   * when asked for: float8[] literals (array-literal.ts) of channels whose factor is a power of
+   * ten (offset 0), of the cells' own text where the unit is canonical
    */
-  texts: Partial<Record<ChannelName, string[]>>;
+  texts: Partial<Record<ChannelName, string>>;
 }
 
 const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
@@ -49,7 +52,7 @@ interface Col {
   channel: ChannelName;
   def: UnitDef;
   values: Float64Array;
-  text: string[] | null;
+  text: ArrayLiteralBuilder | null;
   /** the factor is 10^scale (scale 1…22, offset 0): cells are rewritten by moving the exponent; else 0 */
   scale: number;
 }
@@ -94,7 +97,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) return null;
     const scale = def.offset === 0 ? POW10.indexOf(def.factor) : -1;
-    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? [] : null, scale: Math.max(0, scale) };
+    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? new ArrayLiteralBuilder() : null, scale: Math.max(0, scale) };
     cols.push(col);
     byIndex[i] = col;
   }
@@ -189,6 +192,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
         } else v = Number(text.slice(a, b));
         if (!Number.isFinite(v)) return null;
         const value = v * col.def.factor + col.def.offset;
+        if (!inRange(col.def.quantity, value)) return null;
         col.values[n] = value;
         if (col.text) {
           if (col.scale === 0) {
@@ -223,10 +227,10 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
   }
   if (n < minPoints) return null;
   const values: Partial<Record<ChannelName, Float64Array>> = {};
-  const texts: Partial<Record<ChannelName, string[]>> = {};
+  const texts: Partial<Record<ChannelName, string>> = {};
   for (const c of cols) {
     values[c.channel] = c.values.slice(0, n);
-    if (c.text) texts[c.channel] = c.text;
+    if (c.text) texts[c.channel] = c.text.finish();
   }
   return { sha256: createHash('sha256').update(buf).digest('hex'), sizeBytes: buf.length, nPoints: n, values, texts };
 }

@@ -3,6 +3,9 @@
  * Whole-file problems use line 0, column 0 (e.g. a file that cannot be read or is not UTF-8 past
  * its first line is reported at the line of the first bad byte); header problems use the header's
  * line and the column of the offending header cell (0 when the column is absent).
+ *
+ * `not_stored` is the database refusing one test that passed every check here (the batch writer
+ * isolates it and stores the rest); its message is the database's.
  */
 
 export const REJECTION_CODES = [
@@ -26,6 +29,11 @@ export const REJECTION_CODES = [
   'bad_column_map',
   'unreadable_file',
   'malformed_csv',
+  'wrong_cell_count',
+  'out_of_range',
+  'value_too_long',
+  'invalid_text',
+  'not_stored',
 ] as const;
 
 export type RejectionCode = (typeof REJECTION_CODES)[number];
@@ -38,8 +46,11 @@ export interface Rejection {
   message: string;
 }
 
+/** messages are cut to this many characters (a parser's message can quote a whole 2 MB field) */
+const MAX_MESSAGE = 400;
+
 export function reject(file: string, line: number, column: number, code: RejectionCode, message: string): Rejection {
-  return { file, line, column, code, message };
+  return { file, line, column, code, message: message.length > MAX_MESSAGE ? message.slice(0, MAX_MESSAGE - 1) + '…' : message };
 }
 
 /** `file:line:column: code: message`, the form printed by the command line. */

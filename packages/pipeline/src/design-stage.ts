@@ -15,7 +15,7 @@ import type { Catalog } from './catalog.ts';
 import type { PopulationOptions } from './population.ts';
 import { populationHash } from './population-hash.ts';
 import { currentGrid, loadPopulation, type PropertyFilter, type PropertyKey, type PropertyRow } from './properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
+import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
 
 export interface CurvesStageOptions {
   by: GroupField[];
@@ -50,7 +50,12 @@ function sampleEvenly<T>(xs: T[], n: number): T[] {
   return out;
 }
 
-export async function runCurves(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runCurves(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
+  return exclusiveStage(store, 'design', () => curvesAlone(store, opts));
+}
+
+async function curvesAlone(store: Store, opts: CurvesStageOptions): Promise<CurvesStageResult> {
   const db = store.db;
   const design: DesignOptions = { ...DEFAULT_DESIGN_OPTIONS, ...opts.design };
   const pop = await loadPopulation(db, opts.filter, { ...opts.population, withGrid: true });

@@ -17,3 +17,4 @@ export * from './sample-stage.ts';
 export * from './population.ts';
 export * from './flag-rules.ts';
 export { populationHash } from './population-hash.ts';
+export { csvCell, csvComment, csvLine, csvText, commentJson } from './csv-cell.ts';

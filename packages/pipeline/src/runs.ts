@@ -4,7 +4,7 @@
  * many items it handled.
  */
 import { sql, type Kysely } from 'kysely';
-import type { Database, StageName } from '@fractile/store';
+import type { Database, StageName, Store } from '@fractile/store';
 import { hashOf } from './hash.ts';
 
 /**
@@ -15,6 +15,20 @@ export const ALGORITHM_VERSION = '4';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
 export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '3', monitor: '5' } as const;
+
+/**
+ * Runs a stage alone on the database: two runs of the same stage (two processes on a server, two
+ * calls in one process) never write results at once — the second waits for the first (store
+ * `exclusive`), then finds its results done and reuses them, or computes what is left. Inside,
+ * no other run of the stage can be going on, so runs still `running` were left by a killed
+ * process (or one that failed) and are marked `abandoned` first.
+ */
+export function exclusiveStage<T>(store: Store, stage: StageName, fn: () => Promise<T>): Promise<T> {
+  return store.exclusive(`stage ${stage}`, async () => {
+    await store.db.updateTable('stage_runs').set({ status: 'abandoned' }).where('stage', '=', stage).where('status', '=', 'running').execute();
+    return fn();
+  });
+}
 
 /** Stores a settings body under its hash (once) and returns the hash. */
 export async function saveSettings(db: Kysely<Database>, stage: StageName, body: object): Promise<string> {

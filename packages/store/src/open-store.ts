@@ -13,9 +13,12 @@
  *
  * Type parsing is made the same on both engines: int8 → number (ids stay far below 2^53),
  * date → 'YYYY-MM-DD' string.
+ *
+ * An embedded folder is held by one process while open (embedded-folder.ts, folder-lock.ts); its
+ * commits are flushed to the disk (pglite-durability.ts). `exclusive(name, fn)` gives stages one
+ * writer per name across processes (exclusive.ts).
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
-import { mkdirSync } from 'node:fs';
 import { PGlite } from '@electric-sql/pglite';
 import { Kysely, PostgresDialect, sql } from 'kysely';
 import type { PostgresPool, PostgresPoolClient } from 'kysely';
@@ -23,8 +26,12 @@ import { PGliteDialect } from 'kysely-pglite-dialect';
 import pg from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { copyLine } from './copy-text.ts';
+import { prepareFolder } from './embedded-folder.ts';
+import { inProcessExclusive, serverExclusive, type Exclusive } from './exclusive.ts';
 import { migrateToLatest } from './migrate.ts';
+import { installFsync, PGLITE_DURABLE_PARAMS } from './pglite-durability.ts';
 import type { Database } from './schema.ts';
+import { StoreError } from './store-error.ts';
 
 export type Engine = 'pglite' | 'postgres';
 
@@ -36,12 +43,20 @@ export interface Store {
   copyRows(table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number>;
   /** Runs `fn` in one transaction (committed when it resolves, rolled back when it throws). */
   transaction<T>(fn: (trx: Kysely<Database>) => Promise<T>): Promise<T>;
+  /** Runs `fn` while no other process (or call) holds `name` on this database, waiting for it (exclusive.ts). */
+  exclusive: Exclusive;
+  /** embedded only: true when a read-only folder is read through a temporary copy */
+  readOnlyCopy: boolean;
   close(): Promise<void>;
 }
 
 export interface OpenStoreOptions {
   /** apply pending migrations (default true) */
   migrate?: boolean;
+  /** embedded: how long to wait for another process holding the folder (ms, default 0: fail at once) */
+  waitMs?: number;
+  /** embedded: the caller only reads; a read-only folder is then read through a temporary copy */
+  readOnly?: boolean;
 }
 
 export function isServerTarget(target: string): boolean {
@@ -66,7 +81,7 @@ const PGLITE_CHUNK_BYTES = 2 * 1024 * 1024;
  * folder is open (Node, the compiled engine and its memory). 8 MB of shared buffers was slower
  * (21.3 s on 2,000 tests) and not smaller.
  */
-const PGLITE_START_PARAMS = [...PGlite.defaultStartParams, '-c', 'shared_buffers=16MB', '-c', 'wal_buffers=1MB'];
+const PGLITE_START_PARAMS = [...PGLITE_DURABLE_PARAMS, '-c', 'shared_buffers=16MB', '-c', 'wal_buffers=1MB'];
 
 async function* eachRow(rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): AsyncGenerator<unknown[]> {
   yield* rows as AsyncIterable<unknown[]>;
@@ -74,11 +89,18 @@ async function* eachRow(rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): A
 
 function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
   return (async () => {
-    if (!target.startsWith('memory://')) mkdirSync(target, { recursive: true });
-    const pglite = await PGlite.create(target, {
-      parsers: { 20: (v: string) => Number(v), 1082: (v: string) => v },
-      startParams: PGLITE_START_PARAMS,
-    });
+    const folder = target.startsWith('memory://') ? null : await prepareFolder(target, { readOnly: opts.readOnly, waitMs: opts.waitMs });
+    let pglite: PGlite;
+    try {
+      pglite = await PGlite.create(folder?.path ?? target, {
+        parsers: { 20: (v: string) => Number(v), 1082: (v: string) => v },
+        startParams: PGLITE_START_PARAMS,
+      });
+      installFsync(pglite);
+    } catch (e) {
+      await folder?.dispose();
+      throw new StoreError('database_unavailable', `cannot open the embedded database in ${target}: ${(e as Error).message}`, { cause: e });
+    }
     const db = new Kysely<Database>({ dialect: new PGliteDialect(pglite) });
     const inTrx = new AsyncLocalStorage<true>();
 
@@ -116,8 +138,14 @@ function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
       transaction(fn) {
         return db.transaction().execute((trx) => inTrx.run(true, () => fn(trx)));
       },
+      exclusive: inProcessExclusive(),
+      readOnlyCopy: folder?.copy ?? false,
       async close() {
-        await db.destroy();
+        try {
+          await db.destroy();
+        } finally {
+          await folder?.dispose();
+        }
       },
     };
     return migrated(store, opts);
@@ -186,6 +214,7 @@ async function openServer(target: string, opts: OpenStoreOptions): Promise<Store
   pool.on('error', () => {});
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
   const current = new AsyncLocalStorage<pg.PoolClient>();
+  const locks = serverExclusive(target);
 
   const store: Store = {
     db,
@@ -219,7 +248,10 @@ async function openServer(target: string, opts: OpenStoreOptions): Promise<Store
         client.release(broken);
       }
     },
+    exclusive: locks.exclusive,
+    readOnlyCopy: false,
     async close() {
+      await locks.close();
       await db.destroy();
     },
   };
@@ -232,7 +264,7 @@ async function migrated(store: Store, opts: OpenStoreOptions): Promise<Store> {
   try {
     await migrateToLatest(store.db);
   } catch (e) {
-    await store.db.destroy();
+    await store.close();
     throw e;
   }
   return store;

@@ -25,7 +25,7 @@ export interface StageRunsTable {
   code_version: string;
   started_at: Generated<Timestamp>;
   finished_at: Timestamp | null;
-  status: Generated<'running' | 'done' | 'failed'>;
+  status: Generated<'running' | 'done' | 'failed' | 'abandoned'>;
   counts: Json<Record<string, number>>;
 }
 

@@ -17,7 +17,7 @@ type Float8Array = ColumnType<number[] | null, number[] | string | null, number[
 
 export type SpecimenShapeCode = 'round' | 'flat' | 'area';
 export type YieldDefinitionCode = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
-export type RunStatus = 'running' | 'completed' | 'failed';
+export type RunStatus = 'running' | 'completed' | 'failed' | 'abandoned';
 
 /** One row per distinct file content (manifests, curve files, column maps), keyed by SHA-256. */
 export interface SourceFilesTable {

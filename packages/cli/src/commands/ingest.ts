@@ -31,8 +31,10 @@ Output (--format json): {"run", "accepted", "duplicates", "replaced", "rejected"
 Rejections are also printed on stderr as file:line:column: code: message (line/column 1-based; 0 = whole file).
 Codes: missing_column, missing_value, not_a_number, not_finite, nonpositive_dimension, nonpositive_value, unknown_unit,
 unknown_shape, unknown_yield_definition, invalid_date, missing_curve_file, path_escapes_folder, curve_too_short,
-missing_channel, time_not_monotonic, not_utf8, conflict, bad_column_map, unreadable_file, malformed_csv.
-Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage, 1 on failure.`,
+missing_channel, time_not_monotonic, not_utf8, conflict, bad_column_map, unreadable_file, malformed_csv, wrong_cell_count,
+out_of_range, value_too_long, invalid_text, not_stored (the database refused that one test; the rest of its batch is stored).
+Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage,
+4 when the embedded database folder is in use by another process (see --wait), 1 on failure.`,
       )
       .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string; workers?: string }, cmd: Command) => {
         const { formatRejection, ingestManifests } = await import('@fractile/ingest');

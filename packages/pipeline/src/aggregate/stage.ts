@@ -12,7 +12,7 @@ import { gradeSettings, type Catalog } from '../catalog.ts';
 import { populationHash } from '../population-hash.ts';
 import { leftOutCounts, type LeftOut, type Population, type PopulationOptions } from '../population.ts';
 import { loadPopulation, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
 
@@ -127,7 +127,12 @@ export function aggregateRows(
   return { stats, correlations, timings: { group_ms: t1 - t0, summarize_ms: t2 - t1, correlate_ms: t3 - t2 } };
 }
 
-export async function runAggregate(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runAggregate(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
+  return exclusiveStage(store, 'aggregate', () => aggregateAlone(store, opts));
+}
+
+async function aggregateAlone(store: Store, opts: AggregateOptions): Promise<AggregateResult> {
   const db = store.db;
   const t0 = performance.now();
   const pop = await loadPopulation(db, opts.filter, opts.population);

@@ -3,10 +3,12 @@
  * as JSON so that every field reads back exactly; a first line naming the table and its format
  * version. Lines of the header that are not `key: value` are kept as free text and ignored.
  */
+import { csvComment } from '../csv-cell.ts';
 import type { DesignError, DesignResult } from './types.ts';
 
+/** The header block; values as comment-safe JSON (csv-cell.ts: no formula start between commas). */
 export function headerLines(title: string, entries: readonly [string, unknown][]): string[] {
-  return [`# ${title}`, ...entries.map(([k, v]) => `# ${k}: ${JSON.stringify(v)}`)];
+  return [`# ${title}`, ...entries.map(([k, v]) => csvComment(k, v))];
 }
 
 export interface ParsedHeader {

@@ -7,6 +7,7 @@
  * doubles. Parsing uses csv-parse; errors come back as values with line and column.
  */
 import { parse } from 'csv-parse/sync';
+import { csvLine } from '../csv-cell.ts';
 import { headerLines, parseHeader } from './csv-header.ts';
 import type { DesignCurve, DesignError, DesignProvenance, DesignResult, IdealizedCurves } from './types.ts';
 
@@ -163,7 +164,7 @@ export function idealizedToCsv(curve: DesignCurve): string {
   lines.push('idealization,parameter,value');
   const id = curve.idealized;
   if (id) {
-    const row = (a: string, b: string, v: number | boolean | null) => lines.push(`${a},${b},${v === null ? '' : String(v)}`);
+    const row = (a: string, b: string, v: number | boolean | null) => lines.push(csvLine([a, b, v]));
     row('elastic_perfectly_plastic', 'e_mpa', id.elastic_perfectly_plastic.e_mpa);
     row('elastic_perfectly_plastic', 'yield_mpa', id.elastic_perfectly_plastic.yield_mpa);
     row('bilinear', 'e_mpa', id.bilinear.e_mpa);

@@ -14,7 +14,7 @@ import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import { limitsFor, type PropertyLimits } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, latestRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, latestRun, saveSettings, startRun } from '../runs.ts';
 import { alertId, alertStatuses, registerAlerts, type AlertState } from './alert-state.ts';
 
 export interface DriftOptions {
@@ -183,7 +183,12 @@ export function analyzeDrift(rows: PropertyRow[], opts: Omit<DriftOptions, 'code
   return { alerts, change_points, comparisons: compareSuppliers(rows, properties), series };
 }
 
-export async function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runDrift(store: Store, opts: DriftOptions): Promise<DriftResult> {
+  return exclusiveStage(store, 'monitor', () => driftAlone(store, opts));
+}
+
+async function driftAlone(store: Store, opts: DriftOptions): Promise<DriftResult> {
   const t0 = performance.now();
   const db = store.db;
   const rows = await loadProperties(db, opts.filter);

@@ -11,7 +11,7 @@ import { Piscina } from 'piscina';
 import type { Store } from '@fractile/store';
 import type { ReduceSettings } from '@fractile/curves';
 import type { Catalog } from '../catalog.ts';
-import { ALGORITHM_VERSION, finishRun, saveSettings, startRun } from '../runs.ts';
+import { ALGORITHM_VERSION, exclusiveStage, finishRun, saveSettings, startRun } from '../runs.ts';
 import { reduceOne } from './reduce-one.ts';
 import { reduceSettingsFor, reduceSettingsHash, type ReduceOverrides } from './settings.ts';
 import { channelBuffers, REDUCE_ROW_COLUMNS, type ReduceRow, type ReduceTask } from './task.ts';
@@ -101,7 +101,12 @@ function chunk<T>(xs: T[], size: number): T[][] {
   return out;
 }
 
-export async function runReduce(store: Store, opts: ReduceStageOptions): Promise<ReduceStageSummary> {
+/** Runs the stage alone on the database (see `exclusiveStage`). */
+export function runReduce(store: Store, opts: ReduceStageOptions): Promise<ReduceStageSummary> {
+  return exclusiveStage(store, 'reduce', () => reduceAlone(store, opts));
+}
+
+async function reduceAlone(store: Store, opts: ReduceStageOptions): Promise<ReduceStageSummary> {
   const t0 = performance.now();
   const db = store.db;
   const gradeRows = await db.selectFrom('grades').select(['code']).orderBy('code').execute();

@@ -1,0 +1,55 @@
+/**
+ * What a failure prints and the exit status it gives (README "Exit status"): a location only for
+ * the user's input; the database engine's errors — which carry the engine's own source file and
+ * line, e.g. nbtinsert.c:664 — as a plain message with exit 1; a busy embedded folder exit 4.
+ */
+import pg from 'pg';
+import { afterEach, describe, expect, it, vi } from 'vitest';
+import { RejectionError, reject } from '@fractile/ingest';
+import { CatalogError } from '@fractile/pipeline';
+import { StoreError } from '@fractile/store';
+import { CliError, EXIT_BUSY, reportFailure } from './context.ts';
+
+function printed(err: unknown): { code: number; text: string } {
+  let text = '';
+  const spy = vi.spyOn(process.stderr, 'write').mockImplementation((s: string | Uint8Array) => ((text += String(s)), true));
+  const code = reportFailure(err);
+  spy.mockRestore();
+  return { code, text };
+}
+
+describe('reportFailure', () => {
+  afterEach(() => vi.restoreAllMocks());
+
+  it('names the file, line and column of bad input, exit 2', () => {
+    expect(printed(new RejectionError(reject('m.csv', 4, 6, 'not_a_number', 'diameter: not a number: "ten"')))).toEqual({ code: 2, text: 'fractile: m.csv:4:6: not_a_number: diameter: not a number: "ten"\n' });
+    expect(printed(new CatalogError('invalid JSON', 'grades.json', 3, 9))).toEqual({ code: 2, text: 'fractile: grades.json:3:9: bad_catalog: invalid JSON\n' });
+    expect(printed(new CliError('--batch-size must be a whole number'))).toEqual({ code: 2, text: 'fractile: --batch-size must be a whole number\n' });
+  });
+
+  it('prints a database error plainly with exit 1, never its source location as input', () => {
+    const e = new pg.DatabaseError('duplicate key value violates unique constraint "test_results_pkey"', 0, 'error');
+    Object.assign(e, { severity: 'ERROR', code: '23505', file: 'nbtinsert.c', line: '664', routine: '_bt_check_unique' });
+    const out = printed(e);
+    expect(out.code).toBe(1);
+    expect(out.text).toBe('fractile: the database reported an error: duplicate key value violates unique constraint "test_results_pkey" (SQLSTATE 23505)\n');
+    expect(out.text).not.toContain('nbtinsert.c');
+  });
+
+  it('prints store and system errors in one line; a busy folder exits 4', () => {
+    expect(printed(new StoreError('database_busy', 'the database folder db is in use by process 7'))).toEqual({ code: EXIT_BUSY, text: 'fractile: the database folder db is in use by process 7\n' });
+    expect(printed(new StoreError('database_unavailable', 'cannot create the database folder /x: permission denied (EACCES)'))).toEqual({ code: 1, text: 'fractile: cannot create the database folder /x: permission denied (EACCES)\n' });
+    const sys = Object.assign(new Error("EACCES: permission denied, open 'out/report.html'"), { code: 'EACCES', syscall: 'open', errno: -13 });
+    expect(printed(sys)).toEqual({ code: 1, text: "fractile: EACCES: permission denied, open 'out/report.html'\n" });
+  });
+
+  it('prints a thrown object that is not an Error as its JSON, not [object Object]', () => {
+    expect(printed({ reason: 'closed' })).toEqual({ code: 1, text: 'fractile: {"reason":"closed"}\n' });
+  });
+
+  it('keeps the stack of an unexpected error (a defect)', () => {
+    const out = printed(new TypeError('x is undefined'));
+    expect(out.code).toBe(1);
+    expect(out.text).toMatch(/^fractile: TypeError: x is undefined\n\s+at /);
+  });
+});

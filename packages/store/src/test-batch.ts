@@ -1,0 +1,229 @@
+/**
+ * The ingest batch writer: a batch of tests (their curves, test rows, summary values, new
+ * reference rows and rejections) in one transaction, so a crash leaves whole batches only. It
+ * owns the COPY column lists of the raw tables.
+ *
+ * The caller describes the batch by its records' identities and locations and an `entries`
+ * function that, given the stored current version of each identity, yields what to write for
+ * each record: a test (with its curve as float8[] literals, streamed straight into COPY), a
+ * duplicate, or a rejection. Curves go first (their foreign key to `tests` is deferred); test
+ * rows, which are small, are kept until the curves are in.
+ *
+ * Isolation: when the database refuses a batch for its data (SQLSTATE class 22, data exception;
+ * 23, integrity constraint; 54, program limit, such as an index entry too large), the batch is
+ * rolled back and split in halves, each written on its own, down to single records; a single
+ * record the database refuses is stored as a `not_stored` rejection with the database's message
+ * at its manifest line, and the rest is stored. Other errors (the connection, the disk) end the
+ * run. `entries` is therefore called once per attempt, with the indexes of that attempt.
+ *
+ * On a server, batches of concurrent writers are serialized by a transaction-level advisory lock,
+ * so the stored versions a batch is judged against cannot change under it. Text written to the
+ * rejection table has NUL characters shown as `\0` (PostgreSQL's text cannot hold them; the
+ * readers reject such cells in data).
+ */
+import { sql, type Kysely } from 'kysely';
+import type { Store } from './open-store.ts';
+import type { Insertable } from 'kysely';
+import type { Database, SummaryRecordsTable, TestsTable } from './schema.ts';
+
+export const TEST_COLUMNS = ['id', 'lab', 'test_id', 'version', 'is_current', 'grade_id', 'supplier_id', 'heat_id', 'tested_on', 'shape', 'diameter_mm', 'thickness_mm', 'width_mm', 'area_mm2', 'gauge_length_mm', 'orientation', 'temperature_c', 'content_sha256', 'manifest_sha256', 'manifest_line', 'run_id'];
+export const CURVE_COLUMNS = ['test_row_id', 'n_points', 'time_s', 'force_n', 'extension_mm', 'crosshead_mm', 'stress_mpa', 'strain', 'source_sha256', 'source_path'];
+export const SUMMARY_COLUMNS = ['test_row_id', 'yield_mpa', 'yield_definition', 'tensile_mpa', 'uniform_elongation_pct', 'elongation_pct'];
+export const REJECTION_COLUMNS = ['run_id', 'file', 'line', 'col', 'code', 'message'];
+
+/** The transaction-level advisory lock key that serializes ingest batches on a server ("frac"). */
+const BATCH_LOCK = 0x6672_6163;
+
+export interface RejectionValues {
+  file: string;
+  line: number;
+  column: number;
+  code: string;
+  message: string;
+}
+
+export interface StoredVersion {
+  id: number;
+  version: number;
+  content_sha256: string;
+}
+
+/** A record of the batch: identity, reference labels and where it was read. */
+export interface BatchRecord {
+  lab: string;
+  testId: string;
+  grade: string;
+  supplier: string;
+  heat: string | null;
+  file: string;
+  line: number;
+}
+
+/** The test row's own values (identity, references and provenance are the writer's). */
+export type TestValues = Pick<Insertable<TestsTable>, 'tested_on' | 'shape' | 'diameter_mm' | 'thickness_mm' | 'width_mm' | 'area_mm2' | 'gauge_length_mm' | 'orientation' | 'temperature_c'>;
+
+/** A curve as float8[] array literals (`{1,2.5,…}`) in canonical units; null where absent. */
+export interface CurveLiterals {
+  n_points: number;
+  time_s: string | null;
+  force_n: string | null;
+  extension_mm: string | null;
+  crosshead_mm: string | null;
+  stress_mpa: string | null;
+  strain: string | null;
+  source_sha256: string;
+  /** curve path relative to its manifest */
+  source_path: string;
+  /** path as given, recorded in source_files */
+  source_name: string;
+  size_bytes: number;
+}
+
+export type SummaryRowValues = Omit<SummaryRecordsTable, 'test_row_id'>;
+
+export type BatchEntry =
+  | { kind: 'test'; index: number; values: TestValues; content_sha256: string; version: number; supersedes: number | null; curve: CurveLiterals | null; summary: SummaryRowValues | null }
+  | { kind: 'duplicate'; index: number }
+  | { kind: 'rejection'; rejection: RejectionValues };
+
+/** What a committed attempt wrote, per entry (without the curves). */
+export type BatchOutcome = { kind: 'test'; index: number; replaced: boolean } | { kind: 'duplicate'; index: number } | { kind: 'rejection'; rejection: RejectionValues };
+
+export interface TestBatch {
+  run: number;
+  manifestSha256: string;
+  records: BatchRecord[];
+  /** what to write for the records at `indexes` (in order), judged against their stored versions */
+  entries(indexes: number[], stored: Map<string, StoredVersion>): AsyncIterable<BatchEntry>;
+}
+
+export const identityKey = (lab: string, testId: string) => `${lab}\u0000${testId}`;
+
+const clean = (s: string) => s.replace(/\u0000/g, '\\0');
+
+/** Rejection rows as COPY values, NUL shown as `\0`. */
+export function rejectionRows(run: number, rejections: readonly RejectionValues[]): unknown[][] {
+  return rejections.map((r) => [run, clean(r.file), r.line, r.column, r.code, clean(r.message)]);
+}
+
+/** Stored current versions of these identities. */
+async function storedVersions(db: Kysely<Database>, records: BatchRecord[]): Promise<Map<string, StoredVersion>> {
+  if (records.length === 0) return new Map();
+  const r = await sql<{ id: number; lab: string; test_id: string; version: number; content_sha256: string }>`
+    select t.id, t.lab, t.test_id, t.version, t.content_sha256
+    from unnest(${sql.val(records.map((x) => x.lab))}::text[], ${sql.val(records.map((x) => x.testId))}::text[]) as k(lab, test_id)
+    join tests t on t.lab = k.lab and t.test_id = k.test_id and t.is_current`.execute(db);
+  return new Map(r.rows.map((x) => [identityKey(x.lab, x.test_id), { id: Number(x.id), version: x.version, content_sha256: x.content_sha256 }]));
+}
+
+/** Ids of grades, suppliers and heats for these records, inserting the new ones. */
+async function referenceIds(db: Kysely<Database>, records: BatchRecord[]) {
+  const grades = [...new Set(records.map((r) => r.grade))];
+  const suppliers = [...new Set(records.map((r) => r.supplier))];
+  await sql`insert into grades (code) select unnest(${sql.val(grades)}::text[]) on conflict (code) do nothing`.execute(db);
+  await sql`insert into suppliers (name) select unnest(${sql.val(suppliers)}::text[]) on conflict (name) do nothing`.execute(db);
+  const g = await sql<{ id: number; code: string }>`select id, code from grades where code = any(${sql.val(grades)}::text[])`.execute(db);
+  const s = await sql<{ id: number; name: string }>`select id, name from suppliers where name = any(${sql.val(suppliers)}::text[])`.execute(db);
+  const gradeId = new Map(g.rows.map((x) => [x.code, x.id]));
+  const supplierId = new Map(s.rows.map((x) => [x.name, x.id]));
+  const heatKey = (supplier: number, code: string) => `${supplier}\u0000${code}`;
+  const heats = new Map<string, { supplier: number; code: string }>();
+  for (const r of records) if (r.heat !== null) heats.set(heatKey(supplierId.get(r.supplier)!, r.heat), { supplier: supplierId.get(r.supplier)!, code: r.heat });
+  const heatId = new Map<string, number>();
+  if (heats.size) {
+    const sup = [...heats.values()].map((h) => h.supplier);
+    const code = [...heats.values()].map((h) => h.code);
+    await sql`insert into heats (supplier_id, code) select * from unnest(${sql.val(sup)}::int4[], ${sql.val(code)}::text[]) on conflict (supplier_id, code) do nothing`.execute(db);
+    const h = await sql<{ id: number; supplier_id: number; code: string }>`
+      select h.id, h.supplier_id, h.code from unnest(${sql.val(sup)}::int4[], ${sql.val(code)}::text[]) as k(supplier_id, code)
+      join heats h on h.supplier_id = k.supplier_id and h.code = k.code`.execute(db);
+    for (const x of h.rows) heatId.set(heatKey(x.supplier_id, x.code), Number(x.id));
+  }
+  return (r: BatchRecord) => {
+    const sid = supplierId.get(r.supplier)!;
+    return { grade: gradeId.get(r.grade)!, supplier: sid, heat: r.heat === null ? null : heatId.get(heatKey(sid, r.heat))! };
+  };
+}
+
+/** SQLSTATE classes the database uses to refuse data (rather than to fail). */
+function refusedData(e: unknown): e is Error & { code: string } {
+  const code = (e as { code?: unknown })?.code;
+  return typeof code === 'string' && /^(22|23|54)[0-9A-Z]{3}$/.test(code);
+}
+
+async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promise<BatchOutcome[]> {
+  return store.transaction(async (db) => {
+    if (store.engine === 'postgres') await sql`select pg_advisory_xact_lock(${BATCH_LOCK})`.execute(db);
+    const records = indexes.map((i) => batch.records[i]);
+    const stored = await storedVersions(db, records);
+    const ids = await sql<{ id: number }>`select nextval(pg_get_serial_sequence('tests', 'id')) as id from generate_series(1, ${indexes.length}::int4)`.execute(db);
+    const rowId = new Map(indexes.map((i, k) => [i, Number(ids.rows[k].id)]));
+    const outcomes: BatchOutcome[] = [];
+    const tests: Extract<BatchEntry, { kind: 'test' }>[] = [];
+    const files = new Map<string, { sha256: string; name: string; size_bytes: number }>();
+    async function* curveRows(): AsyncGenerator<unknown[]> {
+      for await (const e of batch.entries(indexes, stored)) {
+        if (e.kind !== 'test') {
+          outcomes.push(e);
+          continue;
+        }
+        outcomes.push({ kind: 'test', index: e.index, replaced: e.supersedes !== null });
+        const c = e.curve;
+        tests.push({ ...e, curve: null });
+        if (!c) continue;
+        files.set(c.source_sha256, { sha256: c.source_sha256, name: c.source_name, size_bytes: c.size_bytes });
+        yield [rowId.get(e.index), c.n_points, c.time_s, c.force_n, c.extension_mm, c.crosshead_mm, c.stress_mpa, c.strain, c.source_sha256, c.source_path];
+      }
+    }
+    await store.copyRows('curves', CURVE_COLUMNS, curveRows());
+    const superseded = tests.flatMap((t) => (t.supersedes === null ? [] : [t.supersedes]));
+    if (superseded.length) await db.updateTable('tests').set({ is_current: false, superseded_at: new Date() }).where('id', 'in', superseded).execute();
+    if (tests.length) {
+      const ref = await referenceIds(db, tests.map((t) => batch.records[t.index]));
+      await store.copyRows('tests', TEST_COLUMNS, tests.map((t) => {
+        const r = batch.records[t.index];
+        const v = t.values;
+        const id = ref(r);
+        return [rowId.get(t.index), r.lab, r.testId, t.version, true, id.grade, id.supplier, id.heat, v.tested_on, v.shape, v.diameter_mm, v.thickness_mm, v.width_mm, v.area_mm2, v.gauge_length_mm, v.orientation, v.temperature_c, t.content_sha256, batch.manifestSha256, r.line, batch.run];
+      }));
+      await store.copyRows('summary_records', SUMMARY_COLUMNS, tests.filter((t) => t.summary).map((t) => {
+        const s = t.summary!;
+        return [rowId.get(t.index), s.yield_mpa, s.yield_definition, s.tensile_mpa, s.uniform_elongation_pct, s.elongation_pct];
+      }));
+    }
+    if (files.size) await db.insertInto('source_files').values([...files.values()]).onConflict((oc) => oc.column('sha256').doNothing()).execute();
+    const rejections = outcomes.flatMap((o) => (o.kind === 'rejection' ? [o.rejection] : []));
+    if (rejections.length) await store.copyRows('rejections', REJECTION_COLUMNS, rejectionRows(batch.run, rejections));
+    return outcomes;
+  });
+}
+
+/** What a dry run would write: the entries judged against the stored versions, nothing written. */
+async function judge(store: Store, batch: TestBatch, indexes: number[]): Promise<BatchOutcome[]> {
+  const stored = await storedVersions(store.db, indexes.map((i) => batch.records[i]));
+  const outcomes: BatchOutcome[] = [];
+  for await (const e of batch.entries(indexes, stored)) outcomes.push(e.kind === 'test' ? { kind: 'test', index: e.index, replaced: e.supersedes !== null } : e);
+  return outcomes;
+}
+
+/** Writes the batch (see above); returns what was committed, per entry. */
+export async function writeTestBatch(store: Store, batch: TestBatch, opts: { dryRun?: boolean } = {}): Promise<BatchOutcome[]> {
+  const all = batch.records.map((_, i) => i);
+  if (opts.dryRun) return judge(store, batch, all);
+  const write = async (indexes: number[]): Promise<BatchOutcome[]> => {
+    try {
+      return await attempt(store, batch, indexes);
+    } catch (e) {
+      if (!refusedData(e)) throw e;
+      if (indexes.length > 1) {
+        const half = Math.ceil(indexes.length / 2);
+        return [...(await write(indexes.slice(0, half))), ...(await write(indexes.slice(half)))];
+      }
+      const r = batch.records[indexes[0]];
+      const rejection = { file: r.file, line: r.line, column: 0, code: 'not_stored', message: `the database refused test ${r.lab}/${r.testId}: ${e.message} (SQLSTATE ${e.code})` };
+      await store.copyRows('rejections', REJECTION_COLUMNS, rejectionRows(batch.run, [rejection]));
+      return [{ kind: 'rejection', rejection }];
+    }
+  };
+  return write(all);
+}
