@@ -11,7 +11,7 @@ import { hashOf } from './hash.ts';
  * Version of the per-test reduction (part of every per-test result's key); bump when a change
  * alters per-test results for the same input.
  */
-export const ALGORITHM_VERSION = '3';
+export const ALGORITHM_VERSION = '4';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
 export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '2', design: '2', monitor: '3' } as const;
