@@ -79,6 +79,15 @@ describe('fractile command line', () => {
     expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
     const csv = fractile('curves', '--db', db, '--format', 'csv');
     expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
+    // the band kind (issue 9 contract): pointwise by default, simultaneous on request
+    expect(c[0].band).toBe('pointwise');
+    expect(csv.stdout).toMatch(/^# band: pointwise: /m);
+    const sim = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--band', 'simultaneous', '--band-simulations', '300', '--format', 'json').stdout) as Record<string, unknown>[];
+    expect(sim[0].band).toBe('simultaneous');
+    expect((sim[0].simultaneous as Record<string, number>).simulations).toBe(300);
+    const bad = fractile('curves', '--db', db, '--band', 'joint');
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--band/);
   });
 
   it('writes the report and the exports, each carrying the caution', () => {
@@ -87,6 +96,8 @@ describe('fractile command line', () => {
     expect(r.status, r.stderr).toBe(0);
     const html = readFileSync(join(out, 'report.html'), 'utf8');
     expect(html).toMatch(/licensed engineer/);
+    expect(html).toMatch(/The characteristic curve is a pointwise bound/);
+    expect(readFileSync(join(out, 'curves', 'curves.json'), 'utf8')).toMatch(/"band": "pointwise"/);
     for (const f of ['properties.csv', 'stats.json', 'drift.json', 'curves/curves.json']) {
       expect(existsSync(join(out, f)), f).toBe(true);
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/licensed engineer/);
