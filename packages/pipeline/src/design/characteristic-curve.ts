@@ -95,13 +95,14 @@ function rangeWarnings(grid: readonly number[], validity: ValidityRange, opts: D
 }
 
 /** The lower band over the valid part (points 0 … last): pointwise bounds or the simultaneous band. */
-function lowerBand(kind: BandKind, tests: readonly UsableTest[], pointwise: readonly number[], last: number, opts: DesignOptions): { band: number[]; info: SimultaneousBandInfo | null } {
-  const own = pointwise.slice(0, last + 1);
-  if (kind === 'pointwise') return { band: own, info: null };
+function lowerBand(kind: BandKind, tests: readonly UsableTest[], pointwise: readonly number[], last: number, opts: DesignOptions): { kind: BandKind; band: number[]; info: SimultaneousBandInfo | null } {
+  const own = { kind: 'pointwise' as const, band: pointwise.slice(0, last + 1), info: null };
+  if (kind === 'pointwise') return own;
   const simulations = opts.bandSimulations ?? 2000;
   const sim = simultaneousLowerBand(tests.map((t) => t.stress.slice(0, last + 1)), last + 1, { coverage: opts.coverage, confidence: opts.confidence, model: opts.model, simulations, seed: BAND_SEED });
-  if (!sim) return { band: own, info: null };
+  if (!sim || !sim.bound.every(Number.isFinite)) return own;
   return {
+    kind,
     band: sim.bound,
     info: { critical_value: sim.criticalValue, max_pointwise_factor: sim.maxPointwiseFactor, simulations, components: sim.components, seed: BAND_SEED },
   };
@@ -111,7 +112,7 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
   const grid = input.grid;
   checkOptions(grid, opts);
   const spec: ToleranceSpec = { coverage: opts.coverage, confidence: opts.confidence, model: opts.model };
-  const kind: BandKind = opts.band ?? 'pointwise';
+  const requested: BandKind = opts.band ?? 'pointwise';
 
   // 1–3: tests, pointwise statistics, valid range
   const usable = usableTests(input.tests, grid.length);
@@ -133,16 +134,13 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
   let charYield = groupCharacteristicYield(sources, spec, input.characteristicYieldMpa);
 
   const L = validity.lastIndex;
-  const common = {
-    group: { ...input.group }, n, band: kind, band_statement: bandStatement(kind, opts.coverage, opts.confidence),
-    characteristic_uniform_plastic_strain: validity.characteristicUniform, e_mpa: eMpa,
-  };
+  const head = (kind: BandKind) => ({ group: { ...input.group }, n, band: kind, band_statement: bandStatement(kind, opts.coverage, opts.confidence) });
   if (L < 0) {
     warnings.push('no_valid_range: no grid point carries enough curves for a tolerance bound; no characteristic curve');
     return {
-      ...common, plastic_strain: [], median_mpa: [], characteristic_mpa: [], simultaneous: null, n_at_point: [], valid_to_plastic_strain: null,
-      extrapolated_from: null, extrapolation: null, extrapolated: [], characteristic_yield_mpa: charYield, median_yield_mpa: null,
-      engineering: null, idealized: null, warnings, provenance: prov,
+      ...head(requested), simultaneous: null, plastic_strain: [], median_mpa: [], characteristic_mpa: [], n_at_point: [], valid_to_plastic_strain: null,
+      characteristic_uniform_plastic_strain: validity.characteristicUniform, extrapolated_from: null, extrapolation: null, extrapolated: [], e_mpa: eMpa,
+      characteristic_yield_mpa: charYield, median_yield_mpa: null, engineering: null, idealized: null, warnings, provenance: prov,
     };
   }
   if (charYield === null) {
@@ -154,8 +152,10 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
   // 5–6: band and valid part
   const x = grid.slice(0, L + 1);
   const counts = pw.counts.slice(0, L + 1);
-  const { band, info } = lowerBand(kind, tests, pw.bound, L, opts);
-  const valid = validPart(x, counts, pw.median.slice(0, L + 1), band, kind, charYield, medYield);
+  const lower = lowerBand(requested, tests, pw.bound, L, opts);
+  const kind = lower.kind;
+  if (kind !== requested) warnings.push('band_pointwise: no simultaneous band could be formed over the valid range; the curve is the pointwise bound');
+  const valid = validPart(x, counts, pw.median.slice(0, L + 1), lower.band, kind, charYield, medYield);
   warnings.push(...valid.warnings);
 
   // 7: extrapolation
@@ -171,16 +171,18 @@ export function characteristicCurve(input: CharacteristicCurveInput, opts: Desig
   warnings.push(...ideal.warnings);
 
   return {
-    ...common,
+    ...head(kind),
+    simultaneous: lower.info,
     plastic_strain: ext.plastic,
     median_mpa: ext.median,
     characteristic_mpa: ext.characteristic,
-    simultaneous: info,
     n_at_point: ext.counts,
     valid_to_plastic_strain: x[L],
+    characteristic_uniform_plastic_strain: validity.characteristicUniform,
     extrapolated_from: ext.extrapolatedFrom,
     extrapolation: ext.extrapolation,
     extrapolated: ext.extrapolated,
+    e_mpa: eMpa,
     characteristic_yield_mpa: charYield,
     median_yield_mpa: medYield,
     engineering: engM && engC ? { median: engM, characteristic: engC } : null,
