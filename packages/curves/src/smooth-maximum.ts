@@ -20,8 +20,9 @@
  *     split parabola's vertex moves with it.
  *
  * Checked on Hollomon records with a chosen post-necking fall and seeded noise of 0.3, 1 and
- * 3 MPa (test/curves-maximum-force-bias.test.ts): Rm within 0.1 noise SD of the law's
- * K·nⁿ·e⁻ⁿ on average, Ag within a few tenths of a point of eⁿ − 1 − Rm/E.
+ * 3 MPa (test/curves-maximum-force-bias.test.ts): Rm within 0.15 noise SD of the law's
+ * K·nⁿ·e⁻ⁿ on average (the largest point: 2.3–2.8 SD high), Ag within 0.3 point of
+ * eⁿ − 1 − Rm/E (one parabola's vertex: up to 1.2 points low).
  *
  * Hand-written: the fits are needed only at the top, on an uneven strain axis (samples are spaced
  * in time, not strain), with prefix sums so the cost stays O(points in the band); the smoothing

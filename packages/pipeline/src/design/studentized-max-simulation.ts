@@ -11,8 +11,9 @@
  * directly as a sum of m − 1 outer products when m − 1 < r). At a point with n tests, given the
  * factor parts f (F₁ = Σf, F₂ = Σf²), the noise sums (Σe, Σf·e) are normal with covariance the Gram
  * matrix [[n, F₁], [F₁, F₂]], and Σe² is the squared norm of their projection plus an independent
- * χ²_{n−2} (χ²_{n−1} where f is constant). So a replicate costs O(blocks·r² + points·blocks·r²),
- * not O(tests × points).
+ * χ²_{n−2} (χ²_{n−1} where f is constant). The block sums are carried along the grid, adding the
+ * blocks that start observing at a point and removing those that stop, so a replicate costs
+ * O((blocks + points)·r²) for curves that end one after another, not O(tests × points).
  *
  * Random numbers: @stdlib's seeded Box–Muller normals and chi-square variates (MT19937).
  * In: loadings (points × r, row-major), r, the blocks (size and the points they observe), z_p,
@@ -37,15 +38,23 @@ export function simulateStudentizedMaxima(loadings: Float64Array, r: number, blo
     for (let k = 0; k < r; k++) s += loadings[a * r + k] ** 2;
     return Math.sqrt(Math.max(0, 1 - s));
   });
-  // per point: the blocks that observe it and the number of tests there
+  // per point: the blocks that observe it, the number of tests there, and what changes from the
+  // point before (the sums are carried along the grid: curves that end drop out, few change)
   const byPoint: number[][] = Array.from({ length: g }, () => []);
   blocks.forEach((b, i) => { for (const a of b.points) byPoint[a].push(i); });
   const nAt = byPoint.map((bs) => bs.reduce((s, i) => s + blocks[i].size, 0));
+  const enter = byPoint.map((bs, a) => (a === 0 ? bs : bs.filter((i) => !byPoint[a - 1].includes(i))));
+  const leave = byPoint.map((bs, a) => (a === 0 ? [] : byPoint[a - 1].filter((i) => !bs.includes(i))));
 
   const sums = blocks.map(() => new Float64Array(r));
   const squares = blocks.map(() => new Float64Array(r * r));
   const y = new Float64Array(r), A = new Float64Array(r * r);
   const acc = new Float64Array(r), accQ = new Float64Array(r * r);
+  const addBlock = (i: number, sign: number) => {
+    const s = sums[i], q = squares[i];
+    for (let k = 0; k < r; k++) acc[k] += sign * s[k];
+    for (let k = 0; k < r * r; k++) accQ[k] += sign * q[k];
+  };
   const maxima = new Float64Array(replicates);
   for (let rep = 0; rep < replicates; rep++) {
     // block statistics: Σε and Σεεᵀ
@@ -77,15 +86,12 @@ export function simulateStudentizedMaxima(loadings: Float64Array, r: number, blo
       for (let k = 0; k < r; k++) for (let l = 0; l < r; l++) q[k * r + l] += (s[k] * s[l]) / b.size;
     });
     let max = -Infinity;
+    acc.fill(0); accQ.fill(0);
     for (let a = 0; a < g; a++) {
+      for (const i of enter[a]) addBlock(i, 1);
+      for (const i of leave[a]) addBlock(i, -1);
       const n = nAt[a];
       if (n < 2) continue;
-      acc.fill(0); accQ.fill(0);
-      for (const i of byPoint[a]) {
-        const s = sums[i], q = squares[i];
-        for (let k = 0; k < r; k++) acc[k] += s[k];
-        for (let k = 0; k < r * r; k++) accQ[k] += q[k];
-      }
       let f1 = 0, f2 = 0;
       for (let k = 0, o = a * r; k < r; k++) {
         f1 += loadings[o + k] * acc[k];
