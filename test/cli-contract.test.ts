@@ -79,11 +79,15 @@ describe('fractile command line', () => {
     expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
     const csv = fractile('curves', '--db', db, '--format', 'csv');
     expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
-    // the band kind (issue 9 contract): pointwise by default, simultaneous on request
+    // the band kind (issue 9 contract): pointwise by default
     expect(c[0].band).toBe('pointwise');
     expect(csv.stdout).toMatch(/^# band: pointwise: /m);
+  });
+
+  it('gives a simultaneous band on request, saying so', () => {
     const sim = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--band', 'simultaneous', '--band-simulations', '300', '--format', 'json').stdout) as Record<string, unknown>[];
     expect(sim[0].band).toBe('simultaneous');
+    expect(sim[0].band_statement).toMatch(/^simultaneous: /);
     expect((sim[0].simultaneous as Record<string, number>).simulations).toBe(300);
   });
 
