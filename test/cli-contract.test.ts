@@ -83,6 +83,9 @@ describe('fractile command line', () => {
     }
     const csv = fractile('curves', '--db', db, '--format', 'csv');
     expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
+    // the band kind (issue 9 contract): pointwise by default
+    expect(c[0].band).toBe('pointwise');
+    expect(csv.stdout).toMatch(/^# band: pointwise: /m);
   }, 300_000); // five commands in turn: on a busy shared machine more than the default two minutes
 
   it('lists alerts with their state, acknowledges and closes them by id, and says which are new', () => {
@@ -108,12 +111,21 @@ describe('fractile command line', () => {
     expect(d.alerts.find((a) => a.id === id)).toMatchObject({ state: 'closed', new: false });
   });
 
+  it('gives a simultaneous band on request, saying so', () => {
+    const sim = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--band', 'simultaneous', '--band-simulations', '300', '--format', 'json').stdout) as Record<string, unknown>[];
+    expect(sim[0].band).toBe('simultaneous');
+    expect(sim[0].band_statement).toMatch(/^simultaneous: /);
+    expect((sim[0].simultaneous as Record<string, number>).simulations).toBe(300);
+  });
+
   it('writes the report and the exports, each carrying the caution', () => {
     const out = join(dir, 'out');
     const r = fractile('report', '--db', db, '--out', out);
     expect(r.status, r.stderr).toBe(0);
     const html = readFileSync(join(out, 'report.html'), 'utf8');
     expect(html).toMatch(/licensed engineer/);
+    expect(html).toMatch(/The characteristic curve is a pointwise bound/);
+    expect(readFileSync(join(out, 'curves', 'curves.json'), 'utf8')).toMatch(/"band": "pointwise"/);
     for (const f of ['properties.csv', 'stats.json', 'drift.json', 'curves/curves.json']) {
       expect(existsSync(join(out, f)), f).toBe(true);
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/licensed engineer/);
@@ -129,6 +141,9 @@ describe('fractile command line', () => {
     const b = fractile('stats', '--db', db, '--coverage', '1.5');
     expect(b.status).toBe(2);
     expect(b.stderr).toMatch(/--coverage/);
+    const band = fractile('curves', '--db', db, '--band', 'joint');
+    expect(band.status).toBe(2);
+    expect(band.stderr).toMatch(/--band/);
     const g = fractile('stats', '--db', db, '--by', 'colour');
     expect(g.status).not.toBe(0);
     expect(g.stderr).toMatch(/unknown grouping field "colour"/);

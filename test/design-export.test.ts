@@ -1,5 +1,6 @@
 // CSV and JSON exports of characteristic curves: round trips, provenance, caution; sources beside each check.
 import { describe, expect, it } from 'vitest';
+import { csvCell } from '../packages/pipeline/src/csv-cell.ts';
 import {
   characteristicCurve,
   CURVE_CSV_COLUMNS,
@@ -18,6 +19,7 @@ import {
   type DesignCurve,
   type DesignOptions,
 } from '../packages/pipeline/src/design/index.ts';
+import { parse } from 'csv-parse/sync';
 import { grid, lawCurve, normals, PROV, pythonIdsSha256 } from './design-fixtures.ts';
 
 const opts = (o: Partial<DesignOptions> = {}): DesignOptions => ({ ...DEFAULT_DESIGN_OPTIONS, ...o });
@@ -158,5 +160,59 @@ describe('provenance', () => {
       PROV,
     );
     expect(reordered.provenance.settings_hash).toBe(a.provenance.settings_hash);
+  });
+});
+
+describe('band kind in every export', () => {
+  // Source: the contract of issue 9 — every curve export says "pointwise" (or "simultaneous").
+  it('the pointwise curve says so in the JSON, the three CSVs and their headers', () => {
+    const c = sample(15);
+    expect(c.band).toBe('pointwise');
+    const json = JSON.parse(designCurveToJson(c)) as Record<string, unknown>;
+    expect(json.band).toBe('pointwise');
+    expect(json.band_statement).toMatch(/^pointwise: at each plastic strain separately/);
+    expect(json.simultaneous).toBeNull();
+    for (const text of [designCurveToCsv(c), idealizedToCsv(c), engineeringToCsv(c)]) {
+      const head = text.split('\n').filter((l) => l.startsWith('#'));
+      expect(head).toContain('# band: "pointwise"');
+      expect(head.some((l) => l.startsWith('# band_statement: "pointwise: '))).toBe(true);
+    }
+    const back = parseDesignCurveCsv(designCurveToCsv(c));
+    expect(back.ok && back.value.band).toBe('pointwise');
+  });
+
+  it('a simultaneous curve round-trips with its kind and critical value', () => {
+    const c = sample(16, { band: 'simultaneous', bandSimulations: 500 });
+    expect(c.band).toBe('simultaneous');
+    expect(parseDesignCurveJson(designCurveToJson(c))).toEqual({ ok: true, value: c });
+    const csv = parseDesignCurveCsv(designCurveToCsv(c));
+    expect(csv.ok && csv.value.band).toBe('simultaneous');
+    expect(csv.ok && csv.value.characteristic_mpa).toEqual(c.characteristic_mpa);
+    expect(designCurveToCsv(c)).toContain('# band: "simultaneous"');
+  });
+
+  it('reads documents written before the band was stated as pointwise, and rejects an unknown kind by path', () => {
+    const c = JSON.parse(designCurveToJson(sample(17))) as Record<string, unknown>;
+    delete c.band;
+    delete c.band_statement;
+    delete c.simultaneous;
+    const old = parseDesignCurveJson(JSON.stringify(c));
+    expect(old.ok && old.value.band).toBe('pointwise');
+    const bad = parseDesignCurveJson(JSON.stringify({ ...c, band: 'joint' }));
+    expect(bad.ok).toBe(false);
+    if (!bad.ok) expect(bad.error.location?.path).toBe('$.band');
+    const text = designCurveToCsv(sample(17)).split('\n').filter((l) => !l.startsWith('# band')).join('\n');
+    const csv = parseDesignCurveCsv(text);
+    expect(csv.ok && csv.value.band).toBe('pointwise');
+  });
+});
+
+describe('CSV cells', () => {
+  // Source: RFC 4180 quoting, read back by csv-parse (the library the readers use).
+  it('quotes text that needs it and reads back the same', () => {
+    const cells = ['plain', 'with, comma', 'with "quotes"', 'line\nbreak', 12.5, -0, true, null];
+    const line = cells.map(csvCell).join(',');
+    const [row] = parse(line + '\n') as string[][];
+    expect(row).toEqual(['plain', 'with, comma', 'with "quotes"', 'line\nbreak', '12.5', '0', 'true', '']);
   });
 });

@@ -10,7 +10,8 @@ export { compensateToe } from './toe.ts';
 export { offsetYield, type Crossing } from './offset-yield.ts';
 export { totalExtensionYield } from './total-extension-yield.ts';
 export { findDiscontinuousYield, type DiscontinuousYield } from './discontinuous-yield.ts';
-export { tensileValues, strainAtMaximum, findFracture, type TensileResult } from './tensile.ts';
+export { tensileValues, findFracture, type TensileResult } from './tensile.ts';
+export { smoothMaximum, DROP_NOISE_SDS, type SmoothMaximum } from './smooth-maximum.ts';
 export { trueCurve, engineeringToTrue } from './true-curve.ts';
 export { hardeningExponent, hardeningWindow, type HardeningExponent } from './hardening-exponent.ts';
 export {

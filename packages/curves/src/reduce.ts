@@ -5,13 +5,13 @@
  *
  * Order: engineering stress/strain → unload–reload loops cut out → noise, maximum force →
  * discontinuous yielding → modulus (iterated on the first yield) → toe compensation → Rp, Rt,
- * ReH/ReL/Ae, Rm, Ag, Agt, A → true curve to maximum force → n, K → shape class, slips → grid →
- * law fits (optional).
+ * ReH/ReL/Ae, Rm, Ag, Agt (from smooth fits to the top of the curve, smooth-maximum.ts), A →
+ * true curve to maximum force → n, K → shape class, slips → grid → law fits (optional).
  *
  * `details` keys (all JSON values): strain_source, points, dropped_points, spikes, noise_mpa,
  * modulus {r2, window_mpa, window_fraction, window_narrowed, points, iterations}, toe_shift_strain, loops
  * [{unloading_modulus_gpa, at_strain}], discontinuous {kind, reh_strain, plateau_end_strain} |
- * null, rp_strain, max_force_strain, fracture_strain, at_pct, points_past_max_force,
+ * null, rp_strain, max_force_strain, max_force_smoothed, fracture_strain, at_pct, points_past_max_force,
  * n {window_pct, reduced, points, r2}, slips, extensometer_removed_at_strain, fits_points.
  *
  * Failures (never a NaN): see FAILURE_CODES in flags.ts.
@@ -89,11 +89,11 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
     for (let i = imaxRaw + 1; i < nRaw; i++) if (rawStress[i] < after) after = rawStress[i];
     if (!(after < rmRecorded - Math.max(4 * noise, 1e-3 * rmRecorded))) return fail('no_maximum', 'the record ends while the force still rises: maximum force not reached');
   }
-  const rmMpa = removed ? Math.max(rmRecorded, eng.curve.fullRecordMaxStressMpa) : rmRecorded;
   const maxAfterRemoval = removed && eng.curve.fullRecordMaxStressMpa > rmRecorded;
+  const rmScreen = removed ? Math.max(rmRecorded, eng.curve.fullRecordMaxStressMpa) : rmRecorded;
 
-  if (noise > 0.03 * rmMpa) return fail('too_noisy', `stress noise ${noise.toFixed(2)} MPa is above 3 % of Rm (${rmMpa.toFixed(1)} MPa)`);
-  if (noise > 0.005 * rmMpa) flags.add('noisy');
+  if (noise > 0.03 * rmScreen) return fail('too_noisy', `stress noise ${noise.toFixed(2)} MPa is above 3 % of Rm (${rmScreen.toFixed(1)} MPa)`);
+  if (noise > 0.005 * rmScreen) flags.add('noisy');
 
   const dyRaw = findDiscontinuousYield(rawStrain, rawStress, imaxRaw, noise);
   const rpOffset = settings.rpOffsetPct / 100;
@@ -115,6 +115,9 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
   const n = e.length;
   const t = tensileValues(e, s, noise);
   const imax = t.maxIndex;
+  // Rm: the smoothed maximum of the extensometer record; where the force rose further after the
+  // extensometer came off, the largest force of the whole record (no smoothing across the removal)
+  const rmMpa = maxAfterRemoval ? eng.curve.fullRecordMaxStressMpa : t.rmMpa;
   if (imax < 3) return fail('too_short', 'no points between the elastic window and maximum force');
   const fracEnd = removed ? n - 1 : t.fractureIndex;
 
@@ -216,6 +219,7 @@ export function reduceCurve(input: CurveInput, settings: ReduceSettings): Reduce
     discontinuous: dyValid ? { kind: dy.kind, reh_strain: round(e[dy.rehIndex]), plateau_end_strain: round(ypeEndStrain) } : null,
     rp_strain: rp ? round(rp.strain) : null,
     max_force_strain: round(t.uniformStrain),
+    max_force_smoothed: t.smoothedMaximum,
     fracture_strain: removed ? null : round(t.fractureStrain),
     at_pct: atPct,
     points_past_max_force: pastMax,

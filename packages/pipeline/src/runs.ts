@@ -11,10 +11,10 @@ import { hashOf } from './hash.ts';
  * Version of the per-test reduction (part of every per-test result's key); bump when a change
  * alters per-test results for the same input.
  */
-export const ALGORITHM_VERSION = '4';
+export const ALGORITHM_VERSION = '5';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
-export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '3', monitor: '5' } as const;
+export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '4', monitor: '5' } as const;
 
 /**
  * Runs a stage alone on the database: two runs of the same stage (two processes on a server, two

@@ -1,6 +1,7 @@
 /**
  * True stress–plastic strain chart of one group: every sampled test curve drawn light, the
- * median and characteristic curves bold over them, the extrapolated part of both dashed, and
+ * median and characteristic curves bold over them (the legend naming the band kind), the
+ * extrapolated part of both dashed, and
  * a vertical rule at the plastic strain up to which the curves are supported by the data.
  * Non-finite points are left out. Returns an SVG string. All curves charts share one
  * structure (`curvesTemplate`), compiled once; each supplies its data (`curvesInput`).
@@ -65,6 +66,7 @@ export function curvesInput(curve: CharacteristicCurve, samples: readonly Sample
   return {
     signals: {
       title_text: options.title ?? 'True stress–plastic strain',
+      characteristic_label: `characteristic (${curve.band ?? 'pointwise'})`,
       subtitle_text: `n = ${curve.n} tests · ${samples.length} test curves shown`,
     },
     data: { samples: sampleValues, main: mainPoints(curve), limit },
@@ -77,12 +79,13 @@ export function curvesTemplate(width: number, height: number, dashLegend: boolea
   const y = { type: 'quantitative' as const, title: 'true stress [MPa]', scale: { zero: false, nice: true } };
   const color = {
     scale: { domain: [...SERIES], range: [PALETTE.sample, PALETTE.median, PALETTE.characteristic] },
-    legend: { title: null, symbolType: 'stroke' },
+    // the legend names the band kind: "characteristic (pointwise)" or "(simultaneous)"
+    legend: { title: null, symbolType: 'stroke', labelExpr: "datum.label === 'characteristic' ? characteristic_label : datum.label" },
   };
   return {
     width,
     height,
-    params: [{ name: 'title_text', value: '' }, { name: 'subtitle_text', value: '' }],
+    params: [{ name: 'title_text', value: '' }, { name: 'subtitle_text', value: '' }, { name: 'characteristic_label', value: 'characteristic' }],
     title: {
       text: { expr: 'title_text' },
       subtitle: signalText('subtitle_text'),
@@ -138,7 +141,7 @@ export async function renderCurvesChart(
   samples: readonly SampleCurve[],
   options: ChartOptions = {},
 ): Promise<string> {
-  const label = `True stress [MPa] against plastic strain for ${groupLabel(curve.group)}: test curves, median and characteristic curve`;
+  const label = `True stress [MPa] against plastic strain for ${groupLabel(curve.group)}: test curves, median and characteristic curve (${curve.band ?? 'pointwise'} lower band)`;
   const input = curvesInput(curve, samples, options);
   const width = options.width ?? 620;
   const height = options.height ?? 300;

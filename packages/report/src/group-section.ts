@@ -13,6 +13,13 @@ import { propertyAxisTitle } from './property-labels.ts';
 import { propertyTable } from './property-table.ts';
 import type { ReportGroup } from './types.ts';
 
+/** What the characteristic curve bounds, said in the curve panel (pointwise unless stated otherwise). */
+export function bandCaption(curve: { band?: 'pointwise' | 'simultaneous' }): string {
+  return (curve.band ?? 'pointwise') === 'pointwise'
+    ? 'The characteristic curve is a pointwise bound: at each plastic strain separately the stated share of the population lies above it with the stated confidence — not the whole curve at once.'
+    : 'The characteristic curve is a simultaneous band: with the stated confidence it lies below the population’s lower fractile at every plastic strain of the valid range at once.';
+}
+
 export function groupAnchor(index: number): string {
   return `group-${index + 1}`;
 }
@@ -30,7 +37,7 @@ export async function groupSection(group: ReportGroup, index: number): Promise<s
         ? ` Dashed beyond plastic strain ${formatShort(group.curves.extrapolated_from, 4)}: extrapolated by the fitted ${group.curves.extrapolation?.law ? `${group.curves.extrapolation.law} ` : ''}law, not measured.`
         : '';
     curves = `<div class="curve-row">
-${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's test curves. Bold: median and characteristic true stress. Dotted rule: validity limit.${extrapolation}`)}
+${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's test curves. Bold: median and characteristic true stress. Dotted rule: validity limit.${extrapolation} ${bandCaption(group.curves)}`)}
 <div class="side">
 <h3>Idealized characteristic curve</h3>
 ${jsonDefinitionList(group.curves.idealized ?? {})}

@@ -69,6 +69,10 @@ export interface CharacteristicCurve {
   median_mpa: readonly number[];
   /** Characteristic (lower-fractile) true stress at each abscissa [MPa]. */
   characteristic_mpa: readonly number[];
+  /** What the characteristic curve bounds: each strain separately, or the whole curve (default pointwise). */
+  band?: 'pointwise' | 'simultaneous';
+  /** The same in words, as the curves stage states it. */
+  band_statement?: string;
   /** Largest plastic strain [–] up to which the curve is supported by the data; null if unknown. */
   valid_to_plastic_strain: number | null;
   /** Plastic strain [–] beyond which the curve is extrapolated by a fitted law, or null. */

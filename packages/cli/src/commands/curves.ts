@@ -1,4 +1,8 @@
-/** `fractile curves`: median and characteristic true stress–plastic strain curves per group (contract JSON). */
+/**
+ * `fractile curves`: median and characteristic true stress–plastic strain curves per group
+ * (contract JSON); the characteristic curve a pointwise bound or, with `--band simultaneous`, a
+ * simultaneous band.
+ */
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
 import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
@@ -22,11 +26,13 @@ export const command: CommandModule = {
         .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
         .option('--multilinear-points <n>', 'points of the multilinear idealization', '6')
         .option('--catalog <file>', 'grade catalog for the headline settings of the characteristic yield (default: the catalog of the last reduce)')
+        .option('--band <kind>', 'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band (the whole curve at once, critical value by simulation)', 'pointwise')
+        .option('--band-simulations <n>', 'Monte Carlo replicates for the simultaneous band’s critical value', '2000')
         .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder'),
     ))
-      .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution.')
+      .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution and the band kind.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { DESIGN_CAUTION, parseGroupBy, runCurves } = await import('@fractile/pipeline');
+        const { bandStatement, DESIGN_CAUTION, parseGroupBy, runCurves } = await import('@fractile/pipeline');
         const { writeCurveFiles } = await import('../curve-files.ts');
         const g = globals(cmd);
         const model = o.model as string;
@@ -35,12 +41,20 @@ export const command: CommandModule = {
         if (law !== undefined && !(LAWS as readonly string[]).includes(law)) throw new CliError(`--extrapolate must be one of ${LAWS.join(', ')}`);
         const points = Number(o.multilinearPoints);
         if (!Number.isInteger(points) || points < 2) throw new CliError('--multilinear-points must be an integer ≥ 2');
+        const band = o.band as string;
+        if (band !== 'pointwise' && band !== 'simultaneous') throw new CliError('--band must be pointwise or simultaneous');
+        const simulations = Number(o.bandSimulations);
+        if (!Number.isInteger(simulations) || simulations < 100) throw new CliError('--band-simulations must be an integer ≥ 100');
+        const coverage = probability(o.coverage, '--coverage', 0.95);
+        const confidence = probability(o.confidence, '--confidence', 0.75);
         const design: Partial<DesignOptions> = {
-          coverage: probability(o.coverage, '--coverage', 0.95),
-          confidence: probability(o.confidence, '--confidence', 0.75),
+          coverage,
+          confidence,
           model,
           extrapolate: (law as DesignOptions['extrapolate']) ?? null,
           multilinearPoints: points,
+          band,
+          ...(band === 'simultaneous' ? { bandSimulations: simulations } : {}),
           ...(o.extrapolateTo !== undefined ? { extrapolateTo: Number(o.extrapolateTo) } : {}),
         };
         await withStore(g, async (store) => {
@@ -55,11 +69,12 @@ export const command: CommandModule = {
             const rows = r.curves.flatMap((c) =>
               c.plastic_strain.map((x, i) => ({ ...c.group, plastic_strain: x, median_mpa: c.median_mpa[i], characteristic_mpa: c.characteristic_mpa[i], extrapolated: c.extrapolated[i] })),
             );
-            process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}\n` + toCsv(rows));
+            const kind = `# band: ${bandStatement(band, coverage, confidence)}\n`;
+            process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}\n${kind}` + toCsv(rows));
           } else {
             for (const c of r.curves) {
               process.stdout.write(
-                `${Object.entries(c.group).map(([k, v]) => `${k}=${v}`).join(' ')}: n=${c.n}, characteristic yield ${c.characteristic_yield_mpa?.toFixed(1) ?? '—'} MPa, valid to plastic strain ${c.valid_to_plastic_strain ?? '—'}${c.extrapolated_from !== null ? `, extrapolated (${c.extrapolation?.law}) from ${c.extrapolated_from}` : ''}\n`,
+                `${Object.entries(c.group).map(([k, v]) => `${k}=${v}`).join(' ')}: n=${c.n}, ${c.band} band, characteristic yield ${c.characteristic_yield_mpa?.toFixed(1) ?? '—'} MPa, valid to plastic strain ${c.valid_to_plastic_strain ?? '—'}${c.extrapolated_from !== null ? `, extrapolated (${c.extrapolation?.law}) from ${c.extrapolated_from}` : ''}\n`,
               );
             }
             process.stdout.write(`\n${DESIGN_CAUTION}\n`);

@@ -1,40 +1,37 @@
 /**
  * Characteristic true stress – true plastic strain curve of a group, on the group's common grid.
+ * The steps, each a function of its own file:
  *
- * Method (per grid point, ISO 16269-6 one-sided tolerance limit):
- *  1. The nominal curve is the pointwise median of the tests' stresses; the raw characteristic
- *     curve is the pointwise lower tolerance bound (normal x̄ − k·s, or lognormal), with the exact
- *     factor k for the number of curves at that point.
- *  2. Both are made non-decreasing by isotonic regression (pool-adjacent-violators, weights = curves
- *     per point) over the valid range (see `validity-range.ts`).
- *  3. Each curve starts at its yield — the median curve at the median yield, the characteristic
- *     curve at the characteristic yield (passed in, or the median / tolerance bound of the tests'
- *     yields) — and is held at or above it: the first point of a plastic curve is the yield (common
- *     practice for nonlinear analysis input; with an offset yield, e.g. Rp0.2, the recorded stress
- *     at εp = 0 is the end of proportionality, below the yield). The characteristic curve is then
- *     held at or below the median; min/max of non-decreasing sequences stay non-decreasing.
- *  4. Optionally, past the valid range, a hardening law fitted to each curve (over the valid range
- *     without its first quarter: the tail the extrapolation continues) extends it, joined at the
- *     last valid point; those points are flagged `extrapolated`.
- * Idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood) are fitted to
- * the valid part (the multilinear one to the whole output, flags kept), and engineering
- * counterparts follow from E.
+ *  1. the usable tests (`usable-tests.ts`);
+ *  2. pointwise counts, medians and lower tolerance bounds (ISO 16269-6; `pointwise-bounds.ts`);
+ *  3. the valid range (`validity-range.ts`);
+ *  4. the group's modulus and yields (`group-values.ts`);
+ *  5. the lower band: the pointwise bounds, or a simultaneous band over the valid range
+ *     (`simultaneous-band.ts`) when `band: 'simultaneous'`;
+ *  6. the valid part made non-decreasing and started at the yields — median by isotonic
+ *     regression, characteristic as the largest non-decreasing curve below the band, held at or
+ *     below the median (`valid-part.ts`);
+ *  7. optionally, past the valid range, a fitted hardening law (`extend-curves.ts`);
+ *  8. engineering counterparts (`engineering-counterpart.ts`) and idealizations (`idealize-curve.ts`).
  *
  * Units: MPa and mm/mm; E in MPa in the output (input GPa). Degenerate input (no valid point —
  * e.g. fewer tests than `minTestsPerPoint`) returns a curve with empty arrays, `idealized: null`
  * and a warning saying why; options out of range throw a `DesignInputError`.
  */
-import { isotonicNonDecreasing, normalToleranceFactor } from '@fractile/stats';
-import { median } from 'simple-statistics';
+import { normalToleranceFactor } from '@fractile/stats';
+import { bandStatement } from './band-statement.ts';
 import { engineeringCounterpart } from './engineering-counterpart.ts';
-import { extrapolateJoined, extrapolationPoints, fitLaw, fitWindowStart } from './extrapolate-law.ts';
-import { fitBilinearHardening } from './idealize-bilinear.ts';
-import { multilinearBreakpoints } from './idealize-multilinear.ts';
-import { fitRambergOsgoodPlastic, interpolateAt, RO_OFFSET } from './idealize-ramberg-osgood.ts';
-import { lowerToleranceBound, type ToleranceSpec } from './lower-tolerance-bound.ts';
+import { extendCurves } from './extend-curves.ts';
+import { groupCharacteristicYield, groupMedianYield, groupModulusMpa } from './group-values.ts';
+import { idealizeCurve } from './idealize-curve.ts';
+import type { ToleranceSpec } from './lower-tolerance-bound.ts';
+import { pointwiseBounds } from './pointwise-bounds.ts';
 import { designProvenance } from './provenance.ts';
-import type { DesignCurve, DesignOptions, IdealizedCurves, ProvenanceInput, TestGridCurve } from './types.ts';
-import { validityRange } from './validity-range.ts';
+import { simultaneousLowerBand } from './simultaneous-band.ts';
+import type { BandKind, DesignCurve, DesignOptions, ProvenanceInput, SimultaneousBandInfo, TestGridCurve } from './types.ts';
+import { usableTests, type UsableTest } from './usable-tests.ts';
+import { validPart } from './valid-part.ts';
+import { validityRange, type ValidityRange } from './validity-range.ts';
 
 export class DesignInputError extends Error {
   constructor(
@@ -58,10 +55,8 @@ export interface CharacteristicCurveInput {
   modulusGpa?: number | null;
 }
 
-/** Plastic strain beyond which holding the curve at the characteristic yield is reported (mm/mm). */
-const YIELD_LIFT_WARN = 0.005;
-/** Relative gap by which a characteristic yield below the curve's own start is reported. */
-const YIELD_BELOW_WARN = 0.02;
+/** Seed of the simultaneous band's simulation (fixed: the same input gives the same curve). */
+export const BAND_SEED = 20260314;
 
 function checkOptions(grid: readonly number[], opts: DesignOptions): void {
   if (!(opts.coverage > 0 && opts.coverage < 1)) throw new DesignInputError('bad_coverage', `coverage must lie in (0, 1), got ${opts.coverage}`);
@@ -71,240 +66,127 @@ function checkOptions(grid: readonly number[], opts: DesignOptions): void {
   if (!Number.isInteger(opts.multilinearPoints) || opts.multilinearPoints < 2) throw new DesignInputError('bad_multilinear_points', `multilinear points must be an integer ≥ 2, got ${opts.multilinearPoints}`);
   if (!(opts.minTestsPerPoint >= 1)) throw new DesignInputError('bad_min_tests', `minimum tests per point must be ≥ 1, got ${opts.minTestsPerPoint}`);
   if (opts.extrapolateTo !== undefined && !Number.isFinite(opts.extrapolateTo)) throw new DesignInputError('bad_extrapolate_to', `extrapolate-to must be a finite plastic strain, got ${opts.extrapolateTo}`);
+  if (opts.band !== undefined && opts.band !== 'pointwise' && opts.band !== 'simultaneous') throw new DesignInputError('bad_band', `band must be pointwise or simultaneous, got ${String(opts.band)}`);
+  if (opts.bandSimulations !== undefined && !(Number.isInteger(opts.bandSimulations) && opts.bandSimulations >= 100)) throw new DesignInputError('bad_band_simulations', `band simulations must be an integer ≥ 100, got ${opts.bandSimulations}`);
   for (let i = 0; i < grid.length; i++) {
     if (!Number.isFinite(grid[i]) || grid[i] < 0) throw new DesignInputError('bad_grid', `grid point ${i} must be a finite plastic strain ≥ 0, got ${grid[i]}`);
     if (i > 0 && !(grid[i] > grid[i - 1])) throw new DesignInputError('bad_grid', `grid must increase strictly (point ${i}: ${grid[i]} after ${grid[i - 1]})`);
   }
 }
 
+/** Warnings on the size of the group. */
+function sizeWarnings(n: number, opts: DesignOptions, spec: ToleranceSpec): string[] {
+  if (n < Math.max(2, opts.minTestsPerPoint)) {
+    return [`few_tests: ${n} test curve(s) in the group, fewer than the ${Math.max(2, Math.ceil(opts.minTestsPerPoint))} a point needs; tolerance bounds from so few tests are wide or undefined`];
+  }
+  if (n < 10) return [`small_sample: only ${n} test curves; the tolerance factor is large (k = ${normalToleranceFactor(n, spec.coverage, spec.confidence).toFixed(3)})`];
+  return [];
+}
+
+/** Warnings on what ends the valid range. */
+function rangeWarnings(grid: readonly number[], validity: ValidityRange, opts: DesignOptions): string[] {
+  const out: string[] = [];
+  if (validity.characteristicUniform === null) out.push('no_uniform_strain: fewer than two uniform plastic strains known; the valid range is set by the curves per point only');
+  else if (validity.characteristicUniform <= (grid[0] ?? 0)) out.push(`uniform_strain_low: the characteristic uniform plastic strain ${validity.characteristicUniform.toPrecision(4)} does not reach past the start of the grid`);
+  if (validity.limitedBy === 'tests-per-point' && validity.lastIndex >= 0) {
+    out.push(`range_by_count: the valid range ends at plastic strain ${grid[validity.lastIndex]} where fewer than ${Math.max(2, Math.ceil(opts.minTestsPerPoint))} curves remain`);
+  }
+  return out;
+}
+
+/** The lower band over the valid part (points 0 … last): pointwise bounds or the simultaneous band. */
+function lowerBand(kind: BandKind, tests: readonly UsableTest[], pointwise: readonly number[], last: number, opts: DesignOptions): { kind: BandKind; band: number[]; info: SimultaneousBandInfo | null } {
+  const own = { kind: 'pointwise' as const, band: pointwise.slice(0, last + 1), info: null };
+  if (kind === 'pointwise') return own;
+  const simulations = opts.bandSimulations ?? 2000;
+  const sim = simultaneousLowerBand(tests.map((t) => t.stress.slice(0, last + 1)), last + 1, { coverage: opts.coverage, confidence: opts.confidence, model: opts.model, simulations, seed: BAND_SEED });
+  if (!sim || !sim.bound.every(Number.isFinite)) return own;
+  return {
+    kind,
+    band: sim.bound,
+    info: { critical_value: sim.criticalValue, max_pointwise_factor: sim.maxPointwiseFactor, simulations, components: sim.components, seed: BAND_SEED },
+  };
+}
+
 export function characteristicCurve(input: CharacteristicCurveInput, opts: DesignOptions, provenance: ProvenanceInput): DesignCurve {
   const grid = input.grid;
   checkOptions(grid, opts);
-  const warnings: string[] = [];
   const spec: ToleranceSpec = { coverage: opts.coverage, confidence: opts.confidence, model: opts.model };
+  const requested: BandKind = opts.band ?? 'pointwise';
 
-  // usable tests: stresses on this grid with at least one finite value
-  const seen = new Set<string>();
-  const mismatched: string[] = [];
-  const empty: string[] = [];
-  const duplicates: string[] = [];
-  const tests: { id: string; stress: (number | null)[]; src: TestGridCurve }[] = [];
-  for (const t of input.tests) {
-    if (t.stress_mpa.length !== grid.length) {
-      mismatched.push(t.test_id);
-      continue;
-    }
-    const stress = t.stress_mpa.map((v) => (v !== null && Number.isFinite(v) ? v : null));
-    if (!stress.some((v) => v !== null)) {
-      empty.push(t.test_id);
-      continue;
-    }
-    if (seen.has(t.test_id)) duplicates.push(t.test_id);
-    seen.add(t.test_id);
-    tests.push({ id: t.test_id, stress, src: t });
-  }
-  const list = (ids: string[]) => ids.slice(0, 5).join(', ') + (ids.length > 5 ? `, … (${ids.length} in all)` : '');
-  if (mismatched.length > 0) warnings.push(`grid_mismatch: ${mismatched.length} test(s) with a stress count other than the ${grid.length} grid points left out: ${list(mismatched)}`);
-  if (empty.length > 0) warnings.push(`no_curve: ${empty.length} test(s) without stress on the grid left out: ${list(empty)}`);
-  if (duplicates.length > 0) warnings.push(`duplicate_test: test id(s) appearing more than once: ${list(duplicates)}`);
+  // 1–3: tests, pointwise statistics, valid range
+  const usable = usableTests(input.tests, grid.length);
+  const tests = usable.tests;
   const n = tests.length;
+  const warnings = [...usable.warnings, ...sizeWarnings(n, opts, spec)];
   const prov = designProvenance(input.group, tests.map((t) => t.id), opts, provenance);
-  if (n < Math.max(2, opts.minTestsPerPoint)) {
-    warnings.push(`few_tests: ${n} test curve(s) in the group, fewer than the ${Math.max(2, Math.ceil(opts.minTestsPerPoint))} a point needs; tolerance bounds from so few tests are wide or undefined`);
-  } else if (n < 10) {
-    warnings.push(`small_sample: only ${n} test curves; the tolerance factor is large (k = ${normalToleranceFactor(n, spec.coverage, spec.confidence).toFixed(3)})`);
-  }
-
-  // pointwise counts, medians and raw bounds
-  const counts: number[] = [];
-  const medRaw: number[] = [];
-  const boundRaw: number[] = [];
-  let lognormalDropped = false;
-  for (let i = 0; i < grid.length; i++) {
-    const vals: number[] = [];
-    for (const t of tests) {
-      const v = t.stress[i];
-      if (v !== null) vals.push(v);
-    }
-    counts.push(vals.length);
-    medRaw.push(vals.length > 0 ? median(vals) : NaN);
-    const b = lowerToleranceBound(vals, spec);
-    if (!b && vals.length >= 2 && spec.model === 'lognormal') lognormalDropped = true;
-    boundRaw.push(b ? b.bound : NaN);
-  }
-  if (lognormalDropped) warnings.push('lognormal_nonpositive: a stress ≤ 0 leaves the lognormal bound undefined at some points');
+  const pw = pointwiseBounds(grid.length, tests, spec);
+  if (pw.lognormalUndefined) warnings.push('lognormal_nonpositive: a stress ≤ 0 leaves the lognormal bound undefined at some points');
   // a point without a bound ends the range as surely as a point without curves
-  const usableCounts = counts.map((c, i) => (Number.isFinite(boundRaw[i]) ? c : 0));
-
+  const usableCounts = pw.counts.map((c, i) => (Number.isFinite(pw.bound[i]) ? c : 0));
   const validity = validityRange(grid, usableCounts, tests.map((t) => t.src.uniform_plastic_strain), spec, opts.minTestsPerPoint);
-  if (validity.characteristicUniform === null) warnings.push('no_uniform_strain: fewer than two uniform plastic strains known; the valid range is set by the curves per point only');
-  else if (validity.characteristicUniform <= (grid[0] ?? 0)) warnings.push(`uniform_strain_low: the characteristic uniform plastic strain ${validity.characteristicUniform.toPrecision(4)} does not reach past the start of the grid`);
-  if (validity.limitedBy === 'tests-per-point' && validity.lastIndex >= 0) {
-    warnings.push(`range_by_count: the valid range ends at plastic strain ${grid[validity.lastIndex]} where fewer than ${Math.max(2, Math.ceil(opts.minTestsPerPoint))} curves remain`);
-  }
+  warnings.push(...rangeWarnings(grid, validity, opts));
 
-  // modulus
-  let eMpa: number | null = null;
-  if (input.modulusGpa !== undefined && input.modulusGpa !== null && Number.isFinite(input.modulusGpa) && input.modulusGpa > 0) eMpa = input.modulusGpa * 1000;
-  else {
-    const moduli = tests.map((t) => t.src.modulus_gpa).filter((m): m is number => m !== null && Number.isFinite(m) && m > 0);
-    if (moduli.length > 0) eMpa = median(moduli) * 1000;
-    else warnings.push('no_modulus: no modulus known; engineering counterparts and elastic parts are left out');
-  }
-
-  // characteristic yield
-  let charYield: number | null = null;
-  if (input.characteristicYieldMpa !== undefined && input.characteristicYieldMpa !== null && Number.isFinite(input.characteristicYieldMpa)) charYield = input.characteristicYieldMpa;
-  else {
-    const yields = tests.map((t) => t.src.yield_mpa).filter((y): y is number => y !== null && Number.isFinite(y));
-    const b = lowerToleranceBound(yields, spec);
-    if (b) charYield = b.bound;
-  }
+  // 4: group values
+  const sources = tests.map((t) => t.src);
+  const eMpa = groupModulusMpa(sources, input.modulusGpa);
+  if (eMpa === null) warnings.push('no_modulus: no modulus known; engineering counterparts and elastic parts are left out');
+  let charYield = groupCharacteristicYield(sources, spec, input.characteristicYieldMpa);
 
   const L = validity.lastIndex;
+  const head = (kind: BandKind) => ({ group: { ...input.group }, n, band: kind, band_statement: bandStatement(kind, opts.coverage, opts.confidence) });
   if (L < 0) {
     warnings.push('no_valid_range: no grid point carries enough curves for a tolerance bound; no characteristic curve');
     return {
-      group: { ...input.group },
-      n,
-      plastic_strain: [],
-      median_mpa: [],
-      characteristic_mpa: [],
-      n_at_point: [],
-      valid_to_plastic_strain: null,
-      characteristic_uniform_plastic_strain: validity.characteristicUniform,
-      extrapolated_from: null,
-      extrapolation: null,
-      extrapolated: [],
-      e_mpa: eMpa,
-      characteristic_yield_mpa: charYield,
-      median_yield_mpa: null,
-      engineering: null,
-      idealized: null,
-      warnings,
-      provenance: prov,
+      ...head(requested), simultaneous: null, plastic_strain: [], median_mpa: [], characteristic_mpa: [], n_at_point: [], valid_to_plastic_strain: null,
+      characteristic_uniform_plastic_strain: validity.characteristicUniform, extrapolated_from: null, extrapolation: null, extrapolated: [], e_mpa: eMpa,
+      characteristic_yield_mpa: charYield, median_yield_mpa: null, engineering: null, idealized: null, warnings, provenance: prov,
     };
   }
-
   if (charYield === null) {
-    charYield = boundRaw[0];
+    charYield = pw.bound[0];
     warnings.push('no_yield: fewer than two yields known; the characteristic yield is taken as the curve’s own bound at its start');
   }
-  let medYield: number | null = null;
-  if (input.medianYieldMpa !== undefined && input.medianYieldMpa !== null && Number.isFinite(input.medianYieldMpa)) medYield = input.medianYieldMpa;
-  else {
-    const yields = tests.map((t) => t.src.yield_mpa).filter((y): y is number => y !== null && Number.isFinite(y));
-    if (yields.length > 0) medYield = median(yields);
-  }
+  const medYield = groupMedianYield(sources, input.medianYieldMpa);
 
-  // valid part: isotonic; each curve starts at its yield (median / characteristic) and is held at
-  // or above it; the characteristic curve is held at or below the median
+  // 5–6: band and valid part
   const x = grid.slice(0, L + 1);
-  const w = counts.slice(0, L + 1);
-  const startAt = (curve: number[], y: number | null): number[] => (y === null ? curve : curve.map((v, i) => (i === 0 ? y : Math.max(v, y))));
-  const med = startAt(Array.from(isotonicNonDecreasing(medRaw.slice(0, L + 1), w)), medYield);
-  const iso = Array.from(isotonicNonDecreasing(boundRaw.slice(0, L + 1), w));
-  const y0 = charYield;
-  const lifted = startAt(iso, y0);
-  let liftedTo = -1;
-  for (let i = 1; i <= L; i++) if (iso[i] < y0) liftedTo = i;
-  if (liftedTo >= 0 && x[liftedTo] - x[0] > YIELD_LIFT_WARN) {
-    warnings.push(
-      `yield_above_curve: the characteristic yield ${y0.toFixed(1)} MPa lies above the curves’ own bound up to plastic strain ${x[liftedTo]}; the curve is held at the yield there`,
-    );
-  }
-  if (y0 < boundRaw[0] * (1 - YIELD_BELOW_WARN)) {
-    warnings.push(`yield_below_curve: the characteristic yield ${y0.toFixed(1)} MPa lies more than ${YIELD_BELOW_WARN * 100} % below the curves’ own bound at the start (${boundRaw[0].toFixed(1)} MPa)`);
-  }
-  let clampedToMedian = false;
-  const chr = lifted.map((v, i) => {
-    if (v > med[i]) {
-      clampedToMedian = true;
-      return med[i];
-    }
-    return v;
-  });
-  if (clampedToMedian) warnings.push('above_median: the bound came out above the median at some points and was held at the median');
+  const counts = pw.counts.slice(0, L + 1);
+  const lower = lowerBand(requested, tests, pw.bound, L, opts);
+  const kind = lower.kind;
+  if (kind !== requested) warnings.push('band_pointwise: no simultaneous band could be formed over the valid range; the curve is the pointwise bound');
+  const valid = validPart(x, counts, pw.median.slice(0, L + 1), lower.band, kind, charYield, medYield);
+  warnings.push(...valid.warnings);
 
-  // extrapolation
-  const plastic = [...x];
-  const medOut = [...med];
-  const chrOut = [...chr];
-  const nAt = [...w];
-  const flags = x.map(() => false);
-  let extrapolatedFrom: number | null = null;
-  let extrapolation: DesignCurve['extrapolation'] = null;
-  if (opts.extrapolate !== null) {
-    const target = opts.extrapolateTo ?? grid[grid.length - 1];
-    const at = extrapolationPoints(grid, L, target);
-    if (at.length === 0) {
-      warnings.push(`nothing_to_extrapolate: the valid range already reaches plastic strain ${target}`);
-    } else {
-      const iFit = fitWindowStart(x);
-      const fitC = fitLaw(opts.extrapolate, x.slice(iFit), chr.slice(iFit), eMpa);
-      const fitM = fitLaw(opts.extrapolate, x.slice(iFit), med.slice(iFit), eMpa);
-      if (!fitC || !fitM) {
-        warnings.push(`extrapolation_failed: the ${opts.extrapolate} law could not be fitted to the valid part; no extrapolation`);
-      } else {
-        const ec = extrapolateJoined(fitC, x[L], chr[L], at);
-        const em = extrapolateJoined(fitM, x[L], med[L], at);
-        let prev = chr[L];
-        for (let j = 0; j < at.length; j++) {
-          // min of two non-decreasing sequences stays non-decreasing
-          const c = Math.max(prev, Math.min(ec[j], em[j]));
-          prev = c;
-          plastic.push(at[j]);
-          medOut.push(em[j]);
-          chrOut.push(c);
-          nAt.push(0);
-          flags.push(true);
-        }
-        extrapolatedFrom = x[L];
-        extrapolation = { law: opts.extrapolate, fit_from_plastic_strain: x[iFit], params_characteristic: fitC.params, params_median: fitM.params, rmse_mpa: fitC.rmseMpa };
-        warnings.push(`extrapolated: past plastic strain ${x[L]} the curves follow the fitted ${opts.extrapolate} law, not test data`);
-      }
-    }
-  }
+  // 7: extrapolation
+  const ext = extendCurves(grid, L, x, valid.median, valid.characteristic, counts, opts.extrapolate, opts.extrapolateTo, eMpa);
+  warnings.push(...ext.warnings);
 
-  // engineering counterparts
-  const engM = engineeringCounterpart(plastic, medOut, eMpa);
-  const engC = engineeringCounterpart(plastic, chrOut, eMpa);
-  const engineering = engM && engC ? { median: engM, characteristic: engC } : null;
-
-  // idealizations
-  const bil = fitBilinearHardening(x, chr, y0, eMpa);
-  const ml = multilinearBreakpoints(plastic, chrOut, opts.multilinearPoints);
-  const rp02 = interpolateAt(x, chr, RO_OFFSET);
-  const ro = fitRambergOsgoodPlastic(x, chr, rp02 ?? undefined);
-  if (!ro) warnings.push('no_ramberg_osgood: the Ramberg–Osgood set could not be fitted (too few points or no hardening)');
-  const idealized: IdealizedCurves = {
-    elastic_perfectly_plastic: { e_mpa: eMpa, yield_mpa: y0 },
-    bilinear: { e_mpa: eMpa, yield_mpa: y0, hardening_modulus_mpa: bil.hardeningModulusMpa, tangent_modulus_mpa: bil.tangentModulusMpa, rmse_mpa: bil.rmseMpa },
-    multilinear: {
-      plastic_strain: ml.indices.map((i) => plastic[i]),
-      stress_mpa: ml.indices.map((i) => chrOut[i]),
-      extrapolated: ml.indices.map((i) => flags[i]),
-    },
-    ramberg_osgood: ro ? { e_mpa: eMpa, sigma0_mpa: ro.sigma0Mpa, m: ro.m, rmse_mpa: ro.rmseMpa } : null,
-  };
+  // 8: engineering counterparts and idealizations
+  const engM = engineeringCounterpart(ext.plastic, ext.median, eMpa);
+  const engC = engineeringCounterpart(ext.plastic, ext.characteristic, eMpa);
+  // a simultaneous band starts at or below the characteristic yield; its idealizations start with it
+  const idealYield = kind === 'simultaneous' ? valid.characteristic[0] : charYield;
+  const ideal = idealizeCurve({ plastic: x, characteristic: valid.characteristic }, { plastic: ext.plastic, characteristic: ext.characteristic, extrapolated: ext.extrapolated }, idealYield, eMpa, opts.multilinearPoints);
+  warnings.push(...ideal.warnings);
 
   return {
-    group: { ...input.group },
-    n,
-    plastic_strain: plastic,
-    median_mpa: medOut,
-    characteristic_mpa: chrOut,
-    n_at_point: nAt,
+    ...head(kind),
+    simultaneous: lower.info,
+    plastic_strain: ext.plastic,
+    median_mpa: ext.median,
+    characteristic_mpa: ext.characteristic,
+    n_at_point: ext.counts,
     valid_to_plastic_strain: x[L],
     characteristic_uniform_plastic_strain: validity.characteristicUniform,
-    extrapolated_from: extrapolatedFrom,
-    extrapolation,
-    extrapolated: flags,
+    extrapolated_from: ext.extrapolatedFrom,
+    extrapolation: ext.extrapolation,
+    extrapolated: ext.extrapolated,
     e_mpa: eMpa,
-    characteristic_yield_mpa: y0,
+    characteristic_yield_mpa: charYield,
     median_yield_mpa: medYield,
-    engineering,
-    idealized,
+    engineering: engM && engC ? { median: engM, characteristic: engC } : null,
+    idealized: ideal.idealized,
     warnings,
     provenance: prov,
   };

@@ -1,79 +1,42 @@
 /**
- * Generic CSV export of a design curve and of its idealizations, and their readers. A commented
- * header (`#` lines: the caution, group, counts, validity, E, provenance) precedes the table.
- * Curve columns: plastic_strain (true plastic, mm/mm), median_mpa, characteristic_mpa (true
- * stress, MPa), extrapolated (true/false). Idealization columns: idealization, parameter, value.
- * Numbers are written in JavaScript's shortest round-trip form, so a read gives back the same
- * doubles. Parsing uses csv-parse; errors come back as values with line and column.
+ * Generic CSV exports of a design curve — the curve, its engineering counterparts, its
+ * idealizations — and their readers. A commented header (`#` lines: the caution, group, counts,
+ * the band kind and what it means, validity, E, provenance) precedes the table. One column-spec
+ * table per format drives both the writer and the reader, so the two cannot drift apart:
+ *
+ *   curve:        plastic_strain (true plastic, mm/mm), median_mpa, characteristic_mpa (true
+ *                 stress, MPa), extrapolated (true/false);
+ *   engineering:  plastic_strain, median_strain, median_stress_mpa, characteristic_strain,
+ *                 characteristic_stress_mpa (engineering, total strain and MPa), extrapolated;
+ *   idealized:    rows of (idealization, parameter, value).
+ *
+ * Every cell is written by `csvCell` of csv-cell.ts (formula-safe text; numbers in JavaScript's
+ * shortest round-trip form, so a read gives back the same doubles). Parsing uses csv-parse; errors
+ * come back as values with line and column.
  */
 import { parse } from 'csv-parse/sync';
-import { csvLine } from '../csv-cell.ts';
+import { csvCell } from '../csv-cell.ts';
 import { headerLines, parseHeader } from './csv-header.ts';
-import type { DesignCurve, DesignError, DesignProvenance, DesignResult, IdealizedCurves } from './types.ts';
+import type { BandKind, DesignCurve, DesignError, DesignProvenance, DesignResult, IdealizedCurves } from './types.ts';
 
 export const CURVE_CSV_TITLE = 'fractile characteristic curve, csv format 1';
 export const IDEALIZED_CSV_TITLE = 'fractile idealized curves, csv format 1';
-export const CURVE_CSV_COLUMNS = ['plastic_strain', 'median_mpa', 'characteristic_mpa', 'extrapolated'] as const;
-
-/** The fields a curve CSV carries (the engineering counterparts and idealizations are left out). */
-export interface DesignCurveTable {
-  group: Record<string, string>;
-  n: number;
-  valid_to_plastic_strain: number | null;
-  characteristic_uniform_plastic_strain: number | null;
-  extrapolated_from: number | null;
-  e_mpa: number | null;
-  characteristic_yield_mpa: number | null;
-  median_yield_mpa: number | null;
-  warnings: string[];
-  provenance: DesignProvenance;
-  plastic_strain: number[];
-  median_mpa: number[];
-  characteristic_mpa: number[];
-  extrapolated: boolean[];
-}
-
-function commonHeader(curve: DesignCurve): [string, unknown][] {
-  return [
-    ['caution', curve.provenance.caution],
-    ['group', curve.group],
-    ['n', curve.n],
-    ['valid_to_plastic_strain', curve.valid_to_plastic_strain],
-    ['characteristic_uniform_plastic_strain', curve.characteristic_uniform_plastic_strain],
-    ['extrapolated_from', curve.extrapolated_from],
-    ['e_mpa', curve.e_mpa],
-    ['characteristic_yield_mpa', curve.characteristic_yield_mpa],
-    ['median_yield_mpa', curve.median_yield_mpa],
-    ['warnings', curve.warnings],
-    ['provenance', curve.provenance],
-  ];
-}
-
-export function designCurveToCsv(curve: DesignCurve): string {
-  const lines = headerLines(CURVE_CSV_TITLE, commonHeader(curve));
-  lines.push(CURVE_CSV_COLUMNS.join(','));
-  for (let i = 0; i < curve.plastic_strain.length; i++) {
-    lines.push(`${curve.plastic_strain[i]},${curve.median_mpa[i]},${curve.characteristic_mpa[i]},${curve.extrapolated[i] ? 'true' : 'false'}`);
-  }
-  return lines.join('\n') + '\n';
-}
+export const ENGINEERING_CSV_TITLE = 'fractile engineering counterparts, csv format 1';
 
 const fail = (code: string, message: string, line?: number, column?: number): { ok: false; error: DesignError } => ({
   ok: false,
   error: { code, message, location: line !== undefined ? { line, column } : undefined },
 });
 
-type Header = Map<string, unknown>;
+// ------------------------------------------------------------------------------------------
+// header fields shared by the three formats
 
-function numOrNull(h: Header, key: string): number | null | undefined {
-  const v = h.get(key);
-  if (v === null) return null;
-  return typeof v === 'number' && Number.isFinite(v) ? v : undefined;
-}
-
-interface CommonFields {
+/** The header fields every design CSV carries. */
+export interface CommonFields {
   group: Record<string, string>;
   n: number;
+  band: BandKind;
+  band_statement: string;
   valid_to_plastic_strain: number | null;
   characteristic_uniform_plastic_strain: number | null;
   extrapolated_from: number | null;
@@ -84,37 +47,50 @@ interface CommonFields {
   provenance: DesignProvenance;
 }
 
-function readCommon(h: Header): DesignResult<CommonFields> {
-  const group = h.get('group');
-  if (!group || typeof group !== 'object' || Array.isArray(group) || !Object.values(group).every((v) => typeof v === 'string')) return fail('bad_header', 'header "group" must be an object of strings');
-  const n = h.get('n');
-  if (typeof n !== 'number' || !Number.isInteger(n) || n < 0) return fail('bad_header', 'header "n" must be a count');
-  const nullable: Record<string, number | null> = {};
-  for (const key of ['valid_to_plastic_strain', 'characteristic_uniform_plastic_strain', 'extrapolated_from', 'e_mpa', 'characteristic_yield_mpa', 'median_yield_mpa']) {
-    const v = numOrNull(h, key);
-    if (v === undefined) return fail('bad_header', `header "${key}" must be a number or null`);
-    nullable[key] = v;
+type HeaderKind = 'group' | 'count' | 'band' | 'string' | 'number-or-null' | 'strings' | 'provenance';
+
+/** Header entries in the order written; `caution` is written first and not read back. */
+const HEADER_FIELDS: readonly { key: keyof CommonFields; kind: HeaderKind }[] = [
+  { key: 'group', kind: 'group' },
+  { key: 'n', kind: 'count' },
+  { key: 'band', kind: 'band' },
+  { key: 'band_statement', kind: 'string' },
+  { key: 'valid_to_plastic_strain', kind: 'number-or-null' },
+  { key: 'characteristic_uniform_plastic_strain', kind: 'number-or-null' },
+  { key: 'extrapolated_from', kind: 'number-or-null' },
+  { key: 'e_mpa', kind: 'number-or-null' },
+  { key: 'characteristic_yield_mpa', kind: 'number-or-null' },
+  { key: 'median_yield_mpa', kind: 'number-or-null' },
+  { key: 'warnings', kind: 'strings' },
+  { key: 'provenance', kind: 'provenance' },
+];
+
+const HEADER_RULE: Record<HeaderKind, { ok: (v: unknown) => boolean; says: string }> = {
+  group: { ok: (v) => !!v && typeof v === 'object' && !Array.isArray(v) && Object.values(v).every((x) => typeof x === 'string'), says: 'an object of strings' },
+  count: { ok: (v) => typeof v === 'number' && Number.isInteger(v) && v >= 0, says: 'a count' },
+  band: { ok: (v) => v === 'pointwise' || v === 'simultaneous', says: 'pointwise or simultaneous' },
+  string: { ok: (v) => typeof v === 'string', says: 'a string' },
+  'number-or-null': { ok: (v) => v === null || (typeof v === 'number' && Number.isFinite(v)), says: 'a number or null' },
+  strings: { ok: (v) => Array.isArray(v) && v.every((w) => typeof w === 'string'), says: 'a list of strings' },
+  provenance: {
+    ok: (v) => !!v && typeof v === 'object' && typeof (v as DesignProvenance).test_ids_sha256 === 'string' && typeof (v as DesignProvenance).caution === 'string',
+    says: 'a provenance object with test_ids_sha256 and caution',
+  },
+};
+
+function commonHeader(curve: DesignCurve): [string, unknown][] {
+  return [['caution', curve.provenance.caution], ...HEADER_FIELDS.map(({ key }): [string, unknown] => [key, curve[key]])];
+}
+
+function readCommon(h: Map<string, unknown>): DesignResult<CommonFields> {
+  const out: Record<string, unknown> = {};
+  for (const { key, kind } of HEADER_FIELDS) {
+    // files written before the band was stated are pointwise (the only kind there was)
+    const v = !h.has(key) && key === 'band' ? 'pointwise' : !h.has(key) && key === 'band_statement' ? '' : h.get(key);
+    if (!HEADER_RULE[kind].ok(v)) return fail('bad_header', `header "${key}" must be ${HEADER_RULE[kind].says}`);
+    out[key] = v;
   }
-  const warnings = h.get('warnings');
-  if (!Array.isArray(warnings) || !warnings.every((w) => typeof w === 'string')) return fail('bad_header', 'header "warnings" must be a list of strings');
-  const prov = h.get('provenance');
-  if (!prov || typeof prov !== 'object' || typeof (prov as DesignProvenance).test_ids_sha256 !== 'string' || typeof (prov as DesignProvenance).caution !== 'string')
-    return fail('bad_header', 'header "provenance" must be a provenance object with test_ids_sha256 and caution');
-  return {
-    ok: true,
-    value: {
-      group: group as Record<string, string>,
-      n,
-      valid_to_plastic_strain: nullable.valid_to_plastic_strain,
-      characteristic_uniform_plastic_strain: nullable.characteristic_uniform_plastic_strain,
-      extrapolated_from: nullable.extrapolated_from,
-      e_mpa: nullable.e_mpa,
-      characteristic_yield_mpa: nullable.characteristic_yield_mpa,
-      median_yield_mpa: nullable.median_yield_mpa,
-      warnings: warnings as string[],
-      provenance: prov as DesignProvenance,
-    },
-  };
+  return { ok: true, value: out as unknown as CommonFields };
 }
 
 function readRows(text: string, bodyLine: number, columns: readonly string[]): DesignResult<string[][]> {
@@ -130,59 +106,193 @@ function readRows(text: string, bodyLine: number, columns: readonly string[]): D
   return { ok: true, value: rows.slice(1) };
 }
 
-export function parseDesignCurveCsv(text: string): DesignResult<DesignCurveTable> {
+/** Header and rows of a design CSV with the given title and columns. */
+function readTable(text: string, title: string, columns: readonly string[]): DesignResult<{ common: CommonFields; rows: string[][]; bodyLine: number }> {
   const header = parseHeader(text);
   if (!header.ok) return header;
-  if (header.value.title !== CURVE_CSV_TITLE) return fail('bad_title', `first line must read "# ${CURVE_CSV_TITLE}"`, 1, 1);
+  if (header.value.title !== title) return fail('bad_title', `first line must read "# ${title}"`, 1, 1);
   const common = readCommon(header.value.values);
   if (!common.ok) return common;
-  const rows = readRows(text, header.value.bodyLine, CURVE_CSV_COLUMNS);
+  const rows = readRows(text, header.value.bodyLine, columns);
   if (!rows.ok) return rows;
-  const out: DesignCurveTable = { ...common.value, plastic_strain: [], median_mpa: [], characteristic_mpa: [], extrapolated: [] };
-  for (let r = 0; r < rows.value.length; r++) {
-    const row = rows.value[r];
-    const line = header.value.bodyLine + 1 + r;
-    const nums: number[] = [];
-    for (let c = 0; c < 3; c++) {
-      const v = Number(row[c]);
-      if (row[c].trim() === '' || !Number.isFinite(v)) return fail('bad_number', `column ${CURVE_CSV_COLUMNS[c]}: "${row[c]}" is not a number`, line, c + 1);
-      nums.push(v);
+  return { ok: true, value: { common: common.value, rows: rows.value, bodyLine: header.value.bodyLine } };
+}
+
+// ------------------------------------------------------------------------------------------
+// cells by kind
+
+type CellKind = 'number' | 'number-or-empty' | 'boolean';
+
+/** A cell read as its kind, or a message saying what it should have been. */
+function readCell(kind: CellKind, raw: string | undefined): { value: number | boolean | null } | { bad: string } {
+  const s = (raw ?? '').trim();
+  if (kind === 'boolean') return s === 'true' || s === 'false' ? { value: s === 'true' } : { bad: 'is not true or false' };
+  if (s === '' && kind === 'number-or-empty') return { value: null };
+  const v = Number(s);
+  return s !== '' && Number.isFinite(v) ? { value: v } : { bad: 'is not a number' };
+}
+
+// ------------------------------------------------------------------------------------------
+// the two point tables: curve and engineering counterparts
+
+/** One column of a point table: its name, kind, and where its values live in the row object. */
+interface PointColumn<T> {
+  name: string;
+  kind: 'number' | 'boolean';
+  get(curve: DesignCurve, i: number): number | boolean;
+  set(table: T, v: number | boolean): void;
+}
+
+/** Writes the header and one row per point of `curve` with the given columns. */
+function writePointTable<T>(title: string, curve: DesignCurve, columns: readonly PointColumn<T>[], rows: number): string {
+  const lines = headerLines(title, commonHeader(curve));
+  lines.push(columns.map((c) => csvCell(c.name)).join(','));
+  for (let i = 0; i < rows; i++) lines.push(columns.map((c) => csvCell(c.get(curve, i))).join(','));
+  return lines.join('\n') + '\n';
+}
+
+/** Reads a point table into `table` (made by `empty`), naming the line and column of a bad cell. */
+function readPointTable<T>(text: string, title: string, columns: readonly PointColumn<T>[], empty: (common: CommonFields) => T): DesignResult<T> {
+  const t = readTable(text, title, columns.map((c) => c.name));
+  if (!t.ok) return t;
+  const out = empty(t.value.common);
+  for (let r = 0; r < t.value.rows.length; r++) {
+    const row = t.value.rows[r];
+    for (let c = 0; c < columns.length; c++) {
+      const got = readCell(columns[c].kind, row[c]);
+      if ('bad' in got) return fail(columns[c].kind === 'boolean' ? 'bad_flag' : 'bad_number', `column ${columns[c].name}: "${row[c]}" ${got.bad}`, t.value.bodyLine + 1 + r, c + 1);
+      columns[c].set(out, got.value as number | boolean);
     }
-    const flag = row[3].trim();
-    if (flag !== 'true' && flag !== 'false') return fail('bad_flag', `column extrapolated: "${row[3]}" is not true or false`, line, 4);
-    out.plastic_strain.push(nums[0]);
-    out.median_mpa.push(nums[1]);
-    out.characteristic_mpa.push(nums[2]);
-    out.extrapolated.push(flag === 'true');
   }
   return { ok: true, value: out };
+}
+
+/** The fields a curve CSV carries (the engineering counterparts and idealizations are left out). */
+export interface DesignCurveTable extends CommonFields {
+  plastic_strain: number[];
+  median_mpa: number[];
+  characteristic_mpa: number[];
+  extrapolated: boolean[];
+}
+
+const CURVE_COLUMNS: readonly PointColumn<DesignCurveTable>[] = [
+  { name: 'plastic_strain', kind: 'number', get: (c, i) => c.plastic_strain[i], set: (t, v) => t.plastic_strain.push(v as number) },
+  { name: 'median_mpa', kind: 'number', get: (c, i) => c.median_mpa[i], set: (t, v) => t.median_mpa.push(v as number) },
+  { name: 'characteristic_mpa', kind: 'number', get: (c, i) => c.characteristic_mpa[i], set: (t, v) => t.characteristic_mpa.push(v as number) },
+  { name: 'extrapolated', kind: 'boolean', get: (c, i) => c.extrapolated[i], set: (t, v) => t.extrapolated.push(v as boolean) },
+];
+export const CURVE_CSV_COLUMNS = CURVE_COLUMNS.map((c) => c.name) as readonly string[];
+
+export function designCurveToCsv(curve: DesignCurve): string {
+  return writePointTable(CURVE_CSV_TITLE, curve, CURVE_COLUMNS, curve.plastic_strain.length);
+}
+
+export function parseDesignCurveCsv(text: string): DesignResult<DesignCurveTable> {
+  return readPointTable(text, CURVE_CSV_TITLE, CURVE_COLUMNS, (common) => ({ ...common, plastic_strain: [], median_mpa: [], characteristic_mpa: [], extrapolated: [] }));
+}
+
+export interface EngineeringTable extends CommonFields {
+  plastic_strain: number[];
+  engineering: DesignCurve['engineering'];
+  extrapolated: boolean[];
+}
+
+type Engineering = NonNullable<DesignCurve['engineering']>;
+/** While reading: the engineering counterparts are filled in place and dropped if no row came. */
+type EngineeringBuild = EngineeringTable & { engineering: Engineering };
+
+const engineeringColumn = (name: string, curve: 'median' | 'characteristic', field: 'strain' | 'stress_mpa'): PointColumn<EngineeringBuild> => ({
+  name,
+  kind: 'number',
+  get: (c, i) => c.engineering![curve][field][i],
+  set: (t, v) => t.engineering[curve][field].push(v as number),
+});
+
+const ENGINEERING_COLUMNS: readonly PointColumn<EngineeringBuild>[] = [
+  { name: 'plastic_strain', kind: 'number', get: (c, i) => c.plastic_strain[i], set: (t, v) => t.plastic_strain.push(v as number) },
+  engineeringColumn('median_strain', 'median', 'strain'),
+  engineeringColumn('median_stress_mpa', 'median', 'stress_mpa'),
+  engineeringColumn('characteristic_strain', 'characteristic', 'strain'),
+  engineeringColumn('characteristic_stress_mpa', 'characteristic', 'stress_mpa'),
+  { name: 'extrapolated', kind: 'boolean', get: (c, i) => c.extrapolated[i], set: (t, v) => t.extrapolated.push(v as boolean) },
+];
+export const ENGINEERING_CSV_COLUMNS = ENGINEERING_COLUMNS.map((c) => c.name) as readonly string[];
+
+/**
+ * The engineering counterparts (engineering strain, total, and engineering stress in MPa) of the
+ * median and characteristic curves, against the true plastic strain they come from. Empty table
+ * where E is not known.
+ */
+export function engineeringToCsv(curve: DesignCurve): string {
+  return writePointTable(ENGINEERING_CSV_TITLE, curve, ENGINEERING_COLUMNS, curve.engineering ? curve.plastic_strain.length : 0);
+}
+
+export function parseEngineeringCsv(text: string): DesignResult<EngineeringTable> {
+  const r = readPointTable(text, ENGINEERING_CSV_TITLE, ENGINEERING_COLUMNS, (common) => ({
+    ...common, plastic_strain: [], extrapolated: [],
+    engineering: { median: { strain: [], stress_mpa: [] }, characteristic: { strain: [], stress_mpa: [] } },
+  }));
+  if (!r.ok) return r;
+  return { ok: true, value: { ...r.value, engineering: r.value.plastic_strain.length > 0 ? r.value.engineering : null } };
+}
+
+// ------------------------------------------------------------------------------------------
+// the idealized table: rows of (idealization, parameter, value)
+
+export const IDEALIZED_CSV_COLUMNS = ['idealization', 'parameter', 'value'] as const;
+
+/** One idealization parameter: its row names, its kind of cell, and where it lives in the object. */
+interface IdealizedEntry {
+  idealization: string;
+  parameter: string;
+  kind: CellKind;
+  get(id: IdealizedCurves): number | boolean | null;
+  set(id: IdealizedCurves, v: number | boolean | null): void;
+}
+
+const num = (v: number | boolean | null) => v as number;
+const numOrNull = (v: number | boolean | null) => v as number | null;
+
+/** The fixed entries; the multilinear points and the Ramberg–Osgood set follow. */
+const FIXED_ENTRIES: readonly IdealizedEntry[] = [
+  { idealization: 'elastic_perfectly_plastic', parameter: 'e_mpa', kind: 'number-or-empty', get: (d) => d.elastic_perfectly_plastic.e_mpa, set: (d, v) => { d.elastic_perfectly_plastic.e_mpa = numOrNull(v); } },
+  { idealization: 'elastic_perfectly_plastic', parameter: 'yield_mpa', kind: 'number', get: (d) => d.elastic_perfectly_plastic.yield_mpa, set: (d, v) => { d.elastic_perfectly_plastic.yield_mpa = num(v); } },
+  { idealization: 'bilinear', parameter: 'e_mpa', kind: 'number-or-empty', get: (d) => d.bilinear.e_mpa, set: (d, v) => { d.bilinear.e_mpa = numOrNull(v); } },
+  { idealization: 'bilinear', parameter: 'yield_mpa', kind: 'number', get: (d) => d.bilinear.yield_mpa, set: (d, v) => { d.bilinear.yield_mpa = num(v); } },
+  { idealization: 'bilinear', parameter: 'hardening_modulus_mpa', kind: 'number', get: (d) => d.bilinear.hardening_modulus_mpa, set: (d, v) => { d.bilinear.hardening_modulus_mpa = num(v); } },
+  { idealization: 'bilinear', parameter: 'tangent_modulus_mpa', kind: 'number-or-empty', get: (d) => d.bilinear.tangent_modulus_mpa, set: (d, v) => { d.bilinear.tangent_modulus_mpa = numOrNull(v); } },
+  { idealization: 'bilinear', parameter: 'rmse_mpa', kind: 'number', get: (d) => d.bilinear.rmse_mpa, set: (d, v) => { d.bilinear.rmse_mpa = num(v); } },
+];
+
+function multilinearEntries(i: number): IdealizedEntry[] {
+  return [
+    { idealization: 'multilinear', parameter: `p${i + 1}_plastic_strain`, kind: 'number', get: (d) => d.multilinear.plastic_strain[i], set: (d, v) => { d.multilinear.plastic_strain[i] = num(v); } },
+    { idealization: 'multilinear', parameter: `p${i + 1}_stress_mpa`, kind: 'number', get: (d) => d.multilinear.stress_mpa[i], set: (d, v) => { d.multilinear.stress_mpa[i] = num(v); } },
+    { idealization: 'multilinear', parameter: `p${i + 1}_extrapolated`, kind: 'boolean', get: (d) => d.multilinear.extrapolated[i], set: (d, v) => { d.multilinear.extrapolated[i] = v as boolean; } },
+  ];
+}
+
+/** The Ramberg–Osgood set (written where it was fitted; `set` creates it). */
+const roOf = (d: IdealizedCurves) => (d.ramberg_osgood ??= { e_mpa: null, sigma0_mpa: NaN, m: NaN, rmse_mpa: NaN });
+const RAMBERG_OSGOOD_ENTRIES: readonly IdealizedEntry[] = [
+  { idealization: 'ramberg_osgood', parameter: 'e_mpa', kind: 'number-or-empty', get: (d) => d.ramberg_osgood!.e_mpa, set: (d, v) => { roOf(d).e_mpa = numOrNull(v); } },
+  { idealization: 'ramberg_osgood', parameter: 'sigma0_mpa', kind: 'number', get: (d) => d.ramberg_osgood!.sigma0_mpa, set: (d, v) => { roOf(d).sigma0_mpa = num(v); } },
+  { idealization: 'ramberg_osgood', parameter: 'm', kind: 'number', get: (d) => d.ramberg_osgood!.m, set: (d, v) => { roOf(d).m = num(v); } },
+  { idealization: 'ramberg_osgood', parameter: 'rmse_mpa', kind: 'number', get: (d) => d.ramberg_osgood!.rmse_mpa, set: (d, v) => { roOf(d).rmse_mpa = num(v); } },
+];
+
+/** Every entry of a set of idealizations, in the order written. */
+function idealizedEntries(points: number, withRambergOsgood: boolean): IdealizedEntry[] {
+  return [...FIXED_ENTRIES, ...Array.from({ length: points }, (_, i) => multilinearEntries(i)).flat(), ...(withRambergOsgood ? RAMBERG_OSGOOD_ENTRIES : [])];
 }
 
 /** The idealized curves as rows of (idealization, parameter, value). */
 export function idealizedToCsv(curve: DesignCurve): string {
   const lines = headerLines(IDEALIZED_CSV_TITLE, commonHeader(curve));
-  lines.push('idealization,parameter,value');
+  lines.push(IDEALIZED_CSV_COLUMNS.map(csvCell).join(','));
   const id = curve.idealized;
   if (id) {
-    const row = (a: string, b: string, v: number | boolean | null) => lines.push(csvLine([a, b, v]));
-    row('elastic_perfectly_plastic', 'e_mpa', id.elastic_perfectly_plastic.e_mpa);
-    row('elastic_perfectly_plastic', 'yield_mpa', id.elastic_perfectly_plastic.yield_mpa);
-    row('bilinear', 'e_mpa', id.bilinear.e_mpa);
-    row('bilinear', 'yield_mpa', id.bilinear.yield_mpa);
-    row('bilinear', 'hardening_modulus_mpa', id.bilinear.hardening_modulus_mpa);
-    row('bilinear', 'tangent_modulus_mpa', id.bilinear.tangent_modulus_mpa);
-    row('bilinear', 'rmse_mpa', id.bilinear.rmse_mpa);
-    id.multilinear.plastic_strain.forEach((e, i) => {
-      row('multilinear', `p${i + 1}_plastic_strain`, e);
-      row('multilinear', `p${i + 1}_stress_mpa`, id.multilinear.stress_mpa[i]);
-      row('multilinear', `p${i + 1}_extrapolated`, id.multilinear.extrapolated[i]);
-    });
-    if (id.ramberg_osgood) {
-      row('ramberg_osgood', 'e_mpa', id.ramberg_osgood.e_mpa);
-      row('ramberg_osgood', 'sigma0_mpa', id.ramberg_osgood.sigma0_mpa);
-      row('ramberg_osgood', 'm', id.ramberg_osgood.m);
-      row('ramberg_osgood', 'rmse_mpa', id.ramberg_osgood.rmse_mpa);
-    }
+    for (const e of idealizedEntries(id.multilinear.plastic_strain.length, id.ramberg_osgood !== null)) lines.push([e.idealization, e.parameter, e.get(id)].map(csvCell).join(','));
   }
   return lines.join('\n') + '\n';
 }
@@ -192,128 +302,24 @@ export interface IdealizedTable extends CommonFields {
 }
 
 export function parseIdealizedCsv(text: string): DesignResult<IdealizedTable> {
-  const header = parseHeader(text);
-  if (!header.ok) return header;
-  if (header.value.title !== IDEALIZED_CSV_TITLE) return fail('bad_title', `first line must read "# ${IDEALIZED_CSV_TITLE}"`, 1, 1);
-  const common = readCommon(header.value.values);
-  if (!common.ok) return common;
-  const rows = readRows(text, header.value.bodyLine, ['idealization', 'parameter', 'value']);
-  if (!rows.ok) return rows;
-  if (rows.value.length === 0) return { ok: true, value: { ...common.value, idealized: null } };
+  const t = readTable(text, IDEALIZED_CSV_TITLE, IDEALIZED_CSV_COLUMNS);
+  if (!t.ok) return t;
+  if (t.value.rows.length === 0) return { ok: true, value: { ...t.value.common, idealized: null } };
   const vals = new Map<string, string>();
-  for (const [a, b, v] of rows.value) vals.set(`${a}.${b}`, v);
-  const num = (key: string): number | null | undefined => {
-    const s = vals.get(key);
-    if (s === undefined) return undefined;
-    if (s.trim() === '') return null;
-    const v = Number(s);
-    return Number.isFinite(v) ? v : undefined;
+  for (const [a, b, v] of t.value.rows) vals.set(`${a}.${b}`, v);
+  let points = 0;
+  while (vals.has(`multilinear.p${points + 1}_plastic_strain`)) points++;
+  const id: IdealizedCurves = {
+    elastic_perfectly_plastic: { e_mpa: null, yield_mpa: NaN },
+    bilinear: { e_mpa: null, yield_mpa: NaN, hardening_modulus_mpa: NaN, tangent_modulus_mpa: null, rmse_mpa: NaN },
+    multilinear: { plastic_strain: [], stress_mpa: [], extrapolated: [] },
+    ramberg_osgood: null,
   };
-  const need = (key: string): number | { bad: string } => {
-    const v = num(key);
-    return typeof v === 'number' ? v : { bad: key };
-  };
-  const nullableNum = (key: string): number | null | { bad: string } => {
-    const v = num(key);
-    return v === undefined ? { bad: key } : v;
-  };
-  const bad = (...xs: unknown[]) => xs.find((x) => typeof x === 'object' && x !== null) as { bad: string } | undefined;
-  const eppE = nullableNum('elastic_perfectly_plastic.e_mpa');
-  const eppY = need('elastic_perfectly_plastic.yield_mpa');
-  const bE = nullableNum('bilinear.e_mpa');
-  const bY = need('bilinear.yield_mpa');
-  const bH = need('bilinear.hardening_modulus_mpa');
-  const bT = nullableNum('bilinear.tangent_modulus_mpa');
-  const bR = need('bilinear.rmse_mpa');
-  const b1 = bad(eppE, eppY, bE, bY, bH, bT, bR);
-  if (b1) return fail('bad_idealized', `missing or bad value for ${b1.bad}`);
-  const ml: IdealizedCurves['multilinear'] = { plastic_strain: [], stress_mpa: [], extrapolated: [] };
-  for (let i = 1; vals.has(`multilinear.p${i}_plastic_strain`); i++) {
-    const e = need(`multilinear.p${i}_plastic_strain`);
-    const s = need(`multilinear.p${i}_stress_mpa`);
-    const f = vals.get(`multilinear.p${i}_extrapolated`);
-    const b2 = bad(e, s);
-    if (b2) return fail('bad_idealized', `missing or bad value for ${b2.bad}`);
-    if (f !== 'true' && f !== 'false') return fail('bad_idealized', `missing or bad value for multilinear.p${i}_extrapolated`);
-    ml.plastic_strain.push(e as number);
-    ml.stress_mpa.push(s as number);
-    ml.extrapolated.push(f === 'true');
+  for (const e of idealizedEntries(points, vals.has('ramberg_osgood.sigma0_mpa'))) {
+    const key = `${e.idealization}.${e.parameter}`;
+    const got = vals.has(key) ? readCell(e.kind, vals.get(key)) : null;
+    if (!got || 'bad' in got) return fail('bad_idealized', `missing or bad value for ${key}`);
+    e.set(id, got.value);
   }
-  let ro: IdealizedCurves['ramberg_osgood'] = null;
-  if (vals.has('ramberg_osgood.sigma0_mpa')) {
-    const e = nullableNum('ramberg_osgood.e_mpa');
-    const s0 = need('ramberg_osgood.sigma0_mpa');
-    const m = need('ramberg_osgood.m');
-    const r = need('ramberg_osgood.rmse_mpa');
-    const b3 = bad(e, s0, m, r);
-    if (b3) return fail('bad_idealized', `missing or bad value for ${b3.bad}`);
-    ro = { e_mpa: e as number | null, sigma0_mpa: s0 as number, m: m as number, rmse_mpa: r as number };
-  }
-  return {
-    ok: true,
-    value: {
-      ...common.value,
-      idealized: {
-        elastic_perfectly_plastic: { e_mpa: eppE as number | null, yield_mpa: eppY as number },
-        bilinear: { e_mpa: bE as number | null, yield_mpa: bY as number, hardening_modulus_mpa: bH as number, tangent_modulus_mpa: bT as number | null, rmse_mpa: bR as number },
-        multilinear: ml,
-        ramberg_osgood: ro,
-      },
-    },
-  };
-}
-
-export const ENGINEERING_CSV_TITLE = 'fractile engineering counterparts, csv format 1';
-export const ENGINEERING_CSV_COLUMNS = ['plastic_strain', 'median_strain', 'median_stress_mpa', 'characteristic_strain', 'characteristic_stress_mpa', 'extrapolated'] as const;
-
-/**
- * The engineering counterparts (engineering strain, total, and engineering stress in MPa) of the
- * median and characteristic curves, against the true plastic strain they come from. Empty table
- * where E is not known.
- */
-export function engineeringToCsv(curve: DesignCurve): string {
-  const lines = headerLines(ENGINEERING_CSV_TITLE, commonHeader(curve));
-  lines.push(ENGINEERING_CSV_COLUMNS.join(','));
-  const eng = curve.engineering;
-  if (eng) {
-    for (let i = 0; i < curve.plastic_strain.length; i++) {
-      lines.push(
-        `${curve.plastic_strain[i]},${eng.median.strain[i]},${eng.median.stress_mpa[i]},${eng.characteristic.strain[i]},${eng.characteristic.stress_mpa[i]},${curve.extrapolated[i] ? 'true' : 'false'}`,
-      );
-    }
-  }
-  return lines.join('\n') + '\n';
-}
-
-export interface EngineeringTable extends CommonFields {
-  plastic_strain: number[];
-  engineering: DesignCurve['engineering'];
-  extrapolated: boolean[];
-}
-
-export function parseEngineeringCsv(text: string): DesignResult<EngineeringTable> {
-  const header = parseHeader(text);
-  if (!header.ok) return header;
-  if (header.value.title !== ENGINEERING_CSV_TITLE) return fail('bad_title', `first line must read "# ${ENGINEERING_CSV_TITLE}"`, 1, 1);
-  const common = readCommon(header.value.values);
-  if (!common.ok) return common;
-  const rows = readRows(text, header.value.bodyLine, ENGINEERING_CSV_COLUMNS);
-  if (!rows.ok) return rows;
-  const cols: number[][] = [[], [], [], [], []];
-  const flags: boolean[] = [];
-  for (let r = 0; r < rows.value.length; r++) {
-    const row = rows.value[r];
-    const line = header.value.bodyLine + 1 + r;
-    for (let c = 0; c < 5; c++) {
-      const v = Number(row[c]);
-      if (row[c].trim() === '' || !Number.isFinite(v)) return fail('bad_number', `column ${ENGINEERING_CSV_COLUMNS[c]}: "${row[c]}" is not a number`, line, c + 1);
-      cols[c].push(v);
-    }
-    const flag = row[5].trim();
-    if (flag !== 'true' && flag !== 'false') return fail('bad_flag', `column extrapolated: "${row[5]}" is not true or false`, line, 6);
-    flags.push(flag === 'true');
-  }
-  const engineering =
-    rows.value.length > 0 ? { median: { strain: cols[1], stress_mpa: cols[2] }, characteristic: { strain: cols[3], stress_mpa: cols[4] } } : null;
-  return { ok: true, value: { ...common.value, plastic_strain: cols[0], engineering, extrapolated: flags } };
+  return { ok: true, value: { ...t.value.common, idealized: id } };
 }

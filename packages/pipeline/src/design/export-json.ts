@@ -1,6 +1,6 @@
 /**
  * JSON export of design curves (the `fractile curves --format json` contract: an array of curve
- * objects) and its reader. The reader checks the shape key by key and returns the first fault
+ * objects, each stating its band kind, `pointwise` or `simultaneous`) and its reader. The reader checks the shape key by key and returns the first fault
  * as an error value naming its JSON path; numbers are plain JSON doubles, so a round trip gives
  * back the same values.
  */
@@ -65,6 +65,14 @@ function checkCurve(v: unknown, path: string): DesignCurve {
   arr(o.characteristic_mpa, `${path}.characteristic_mpa`, num, len);
   arr(o.n_at_point, `${path}.n_at_point`, num, len);
   arr(o.extrapolated, `${path}.extrapolated`, bool, len);
+  // documents written before the band was stated are pointwise (the only kind there was)
+  if (o.band === undefined) Object.assign(o, { band: 'pointwise', band_statement: '', simultaneous: null });
+  if (o.band !== 'pointwise' && o.band !== 'simultaneous') throw new ShapeError(`${path}.band`, 'must be pointwise or simultaneous');
+  str(o.band_statement, `${path}.band_statement`);
+  if (o.simultaneous !== null) {
+    const b = obj(o.simultaneous, `${path}.simultaneous`);
+    for (const k of ['critical_value', 'max_pointwise_factor', 'simulations', 'components', 'seed']) num(b[k], `${path}.simultaneous.${k}`);
+  }
   numOrNull(o.valid_to_plastic_strain, `${path}.valid_to_plastic_strain`);
   numOrNull(o.characteristic_uniform_plastic_strain, `${path}.characteristic_uniform_plastic_strain`);
   numOrNull(o.extrapolated_from, `${path}.extrapolated_from`);

@@ -1,7 +1,10 @@
 // Design stage: characteristic true stress – plastic strain curves per group, idealizations,
 // engineering counterparts and generic CSV/JSON exports with provenance.
 export * from './types.ts';
-export { characteristicCurve, DesignInputError, type CharacteristicCurveInput } from './characteristic-curve.ts';
+export { BAND_SEED, characteristicCurve, DesignInputError, type CharacteristicCurveInput } from './characteristic-curve.ts';
+export { simultaneousLowerBand, type SimultaneousBand, type SimultaneousBandSpec } from './simultaneous-band.ts';
+export { largestNonDecreasingBelow } from './non-decreasing-below.ts';
+export { bandStatement } from './band-statement.ts';
 export { lowerToleranceBound, type ToleranceBound, type ToleranceSpec } from './lower-tolerance-bound.ts';
 export { validityRange, type ValidityRange, type ValidityLimit } from './validity-range.ts';
 export { engineeringCounterpart } from './engineering-counterpart.ts';
@@ -11,6 +14,8 @@ export { fitRambergOsgoodPlastic, rambergOsgoodPlasticStrain, rambergOsgoodStres
 export { fitLaw, extrapolateJoined, extrapolationPoints, fitWindowStart, type FittedLaw } from './extrapolate-law.ts';
 export { DESIGN_CAUTION, designProvenance, designSettings, testIdsSha256 } from './provenance.ts';
 export {
+  type CommonFields,
+  IDEALIZED_CSV_COLUMNS,
   designCurveToCsv,
   parseDesignCurveCsv,
   idealizedToCsv,

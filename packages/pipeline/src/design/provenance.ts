@@ -25,6 +25,8 @@ export function designSettings(opts: DesignOptions, extra?: ProvenanceInput['ext
     min_tests_per_point: opts.minTestsPerPoint,
   };
   if (opts.extrapolateTo !== undefined) settings.extrapolate_to = opts.extrapolateTo;
+  settings.band = opts.band ?? 'pointwise';
+  if (settings.band === 'simultaneous') settings.band_simulations = opts.bandSimulations ?? 2000;
   for (const [k, v] of Object.entries(extra ?? {})) if (!(k in settings)) settings[k] = v;
   return settings;
 }

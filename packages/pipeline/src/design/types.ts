@@ -17,6 +17,12 @@ export interface TestGridCurve {
 }
 
 export type ToleranceModel = 'normal' | 'lognormal';
+/**
+ * What the characteristic curve bounds: `pointwise` — at each plastic strain separately, the lower
+ * tolerance bound (the curve as a whole lies below the population's fractile curve with less than
+ * the stated confidence); `simultaneous` — the whole curve at once, with the stated confidence.
+ */
+export type BandKind = 'pointwise' | 'simultaneous';
 export type ExtrapolationLaw = 'swift' | 'voce' | 'hollomon';
 
 export interface DesignOptions {
@@ -32,6 +38,10 @@ export interface DesignOptions {
   multilinearPoints: number;
   /** A grid point with fewer curves than this lies outside the valid range (at least 2 is used). */
   minTestsPerPoint: number;
+  /** Pointwise (default) or simultaneous lower band; see `BandKind`. */
+  band?: BandKind;
+  /** Monte Carlo replicates for the simultaneous band's critical value (default 2000). */
+  bandSimulations?: number;
 }
 
 export const DEFAULT_DESIGN_OPTIONS: Readonly<DesignOptions> = Object.freeze({
@@ -41,6 +51,8 @@ export const DEFAULT_DESIGN_OPTIONS: Readonly<DesignOptions> = Object.freeze({
   extrapolate: null,
   multilinearPoints: 6,
   minTestsPerPoint: 5,
+  band: 'pointwise',
+  bandSimulations: 2000,
 });
 
 /** What the caller supplies for provenance; the design stage never reads the clock itself. */
@@ -90,6 +102,18 @@ export interface IdealizedCurves {
   ramberg_osgood: { e_mpa: number | null; sigma0_mpa: number; m: number; rmse_mpa: number } | null;
 }
 
+/** The simultaneous band's critical value and how it was found (see `simultaneous-band.ts`). */
+export interface SimultaneousBandInfo {
+  /** c in mean − c·s at every grid point of the valid range (log scale for the lognormal model). */
+  critical_value: number;
+  /** The largest pointwise factor k(n_i) over the same points, for comparison (c ≥ it). */
+  max_pointwise_factor: number;
+  simulations: number;
+  /** Components of the correlation model the simulation used (the rest as independent noise). */
+  components: number;
+  seed: number;
+}
+
 /** One group's characteristic curve (JSON contract of `fractile curves`, extended). */
 export interface DesignCurve {
   group: Record<string, string>;
@@ -98,6 +122,12 @@ export interface DesignCurve {
   plastic_strain: number[];
   median_mpa: number[];
   characteristic_mpa: number[];
+  /** What `characteristic_mpa` bounds: each strain separately (`pointwise`) or the whole curve. */
+  band: BandKind;
+  /** The same in words, for whoever reads an export. */
+  band_statement: string;
+  /** Critical value of the simultaneous band; `null` for a pointwise band. */
+  simultaneous: SimultaneousBandInfo | null;
   /** Tests contributing at each point (0 at extrapolated points). */
   n_at_point: number[];
   /** Last grid point inside the valid range, or `null` if no point is valid. */
