@@ -184,7 +184,7 @@ export function loadCatalog(file: string): Catalog {
     text = readFileSync(file, 'utf8');
   } catch (e) {
     const code = (e as { code?: string }).code;
-    throw new CatalogError(code === 'ENOENT' ? 'no such catalog file (`fractile init` writes a starter catalog)' : `cannot read the catalog: ${(e as Error).message}`, file);
+    throw new CatalogError(code === 'ENOENT' ? 'no such catalog file' : `cannot read the catalog: ${(e as Error).message}`, file);
   }
   let doc: LocatedJson;
   try {

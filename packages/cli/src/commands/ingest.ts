@@ -4,8 +4,11 @@
  * message` and recorded; the rest still loads. Exit code 3 when anything was rejected.
  */
 import type { Command } from 'commander';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { progressBar } from '../progress.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { print } from '../output.ts';
+import { existsSync } from 'node:fs';
+import { checkManifestFiles } from '../manifest-check.ts';
+import { PROGRESS_MODES, progressBar, type ProgressMode } from '../progress.ts';
 import { withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
@@ -17,13 +20,13 @@ export const command: CommandModule = {
     program
       .command('ingest')
       .description('load tests from manifests (and their curve files) into the database')
-      .argument('<manifest...>', 'manifest CSV files (curve paths are relative to each manifest)')
+      .argument('[manifest...]', 'manifest CSV files (curve paths are relative to each manifest); default: the "manifests" of ./fractile.json')
       .option('--map <file>', 'column map (JSON) for the curve files of these manifests: delimiter, decimal mark, header row, channels and units')
       .option('--dry-run', 'check and classify everything, write nothing')
       .option('--replace', 'a stored test whose content changed is replaced (the old version is kept as history) instead of rejected')
       .option('--batch-size <n>', 'tests per transaction', '200')
       .option('--workers <n>', 'worker threads that parse curve files (default: cores − 1, at most 8, none below 4 cores; 0: none)')
-      .option('--progress <mode>', 'progress on stderr: bar (a terminal only), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
+      .option('--progress <mode>', 'progress on stderr: bar (a bar on a terminal, a line every 10 s elsewhere), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
       .addHelpText(
         'after',
         `
@@ -44,12 +47,19 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
         // the exit status is set after the store is closed (closing the embedded engine resets it)
         const workers = o.workers === undefined ? undefined : Number(o.workers);
         if (workers !== undefined && (!Number.isInteger(workers) || workers < 0)) throw new CliError(`--workers must be a whole number ≥ 0, got "${o.workers}"`);
-        if (!['bar', 'lines', 'none'].includes(o.progress)) throw new CliError(`--progress must be bar, lines or none, got "${o.progress}"`);
+        if (!(PROGRESS_MODES as readonly string[]).includes(o.progress)) throw new CliError(`--progress must be ${PROGRESS_MODES.join(', ')}, got "${o.progress}"`);
+        const inputs = manifests.length
+          ? manifests.map((path) => ({ path, map: o.map ?? null }))
+          : (g.project?.manifests ?? []).map((m) => ({ path: m.path, map: o.map ?? m.map }));
+        if (inputs.length === 0) throw new CliError('name the manifests to ingest (`fractile ingest MANIFEST.csv …`), or list them under "manifests" in ./fractile.json');
+        // before any database is opened: a wrong path creates nothing
+        checkManifestFiles(inputs.map((m) => m.path));
+        if (o.map !== undefined && !existsSync(o.map)) throw new CliError(`no column map at ${o.map}`);
         const rejected = await withStore(g, async (store) => {
-          const bar = o.progress === 'bar' ? progressBar('ingest') : { update: (done: number, total: number) => (o.progress === 'lines' ? log(`ingest: ${done}/${total}`) : undefined), stop() {} };
+          const bar = progressBar('ingest', o.progress as ProgressMode);
           let summary;
           try {
-            summary = await ingestManifests(store, manifests.map((path) => ({ path, map: o.map ?? null })), {
+            summary = await ingestManifests(store, inputs, {
               dryRun: Boolean(o.dryRun),
               replace: Boolean(o.replace),
               batchSize,
@@ -63,7 +73,7 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
           for (const r of summary.rejected) log(formatRejection(r));
           log(`${summary.dry_run ? 'dry run: would accept' : `run ${summary.run}: accepted`} ${summary.accepted} (${summary.replaced} replacing a stored version), ${summary.duplicates} duplicate, ${summary.rejected.length} rejected`);
           const row = { run: summary.run, accepted: summary.accepted, duplicates: summary.duplicates, replaced: summary.replaced, rejected: summary.rejected.length, dry_run: summary.dry_run };
-          emit(g.format, summary, [row]);
+          print(g, { kind: 'ingest', data: summary, rows: [row], title: 'fractile ingest run: accepted, duplicate, replaced and rejected records', provenance: { manifests: inputs.map((m) => m.path) }, result: false });
           return summary.rejected.length;
         });
         if (rejected > 0) process.exitCode = EXIT_REJECTED;
