@@ -60,7 +60,7 @@ export function mleCovariance(fit: Pick<FitResult, 'model' | 'params'>, values: 
   const det = jaa * jbb - jab * jab;
   if (!(det > 0) || !Number.isFinite(det)) return null;
   const caa = jbb / det;
-  const cab = -jab / det;
+  const cab = -jab / det || 0; // 0, not −0, where the parameters are uncorrelated
   const cbb = jaa / det;
   const se: [number, number] = [Math.sqrt(caa), Math.sqrt(cbb)];
   return { method: 'observed information', parameters: names, covariance: [[caa, cab], [cab, cbb]], standard_errors: se, correlation: cab / (se[0] * se[1]) };
