@@ -14,7 +14,7 @@ import { hashOf } from './hash.ts';
 export const ALGORITHM_VERSION = '4';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
-export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '3', monitor: '4', sample: '1' } as const;
+export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '4', design: '3', monitor: '4', sample: '1' } as const;
 
 /** Stores a settings body under its hash (once) and returns the hash. */
 export async function saveSettings(db: Kysely<Database>, stage: StageName, body: object): Promise<string> {
