@@ -213,7 +213,7 @@ describe('parameter draws and the two-level sampler', () => {
     const r = sampleWithUncertainty(model, 'bootstrap', 100, 10, 9);
     if ('code' in r) throw new Error(r.message);
     expect(Array.from(r.draw)).toEqual(Array.from({ length: 100 }, (_, i) => Math.floor(i / 10)));
-    expect(r.parameters[3]).toEqual(boot.replicates[3].params);
+    expect(r.parameters[3]).toEqual(boot.replicates[3].parameters);
     expect(sampleWithUncertainty(model, 'bootstrap', 10, 11, 1)).toMatchObject({ code: 'bad-count' });
     expect(sampleWithUncertainty({ ...model, replicates: [] }, 'bootstrap', 10, 2, 1)).toMatchObject({ code: 'bad-count' });
   });

@@ -25,7 +25,7 @@ export const BOOTSTRAP_METHOD = 'nonparametric bootstrap of the tests (Efron & T
 
 export interface BootstrapReplicate {
   /** one parameter set per marginal, in the order of the columns */
-  params: Record<string, number>[];
+  parameters: Record<string, number>[];
   spearman: (number | null)[][];
 }
 
@@ -66,15 +66,15 @@ export function bootstrapModel(columns: readonly ArrayLike<number>[], families: 
     }
     const cols: Record<string, Float64Array> = {};
     resampled.forEach((c, i) => (cols[`c${i}`] = c));
-    out.push({ params: fits.map((f) => f!.params), spearman: correlationMatrices(cols).spearman });
+    out.push({ parameters: fits.map((f) => ({ ...f!.params })), spearman: correlationMatrices(cols).spearman });
   }
   return { method: BOOTSTRAP_METHOD, requested: replicates, seed, replicates: out, failed };
 }
 
 /** Covariance (divisor B − 1, simple-statistics) of marginal `index`'s two parameters over the replicates; null with fewer than 2. */
 export function bootstrapCovariance(boot: Pick<ModelBootstrap, 'replicates'>, index: number, names: [string, string]): { covariance: [[number, number], [number, number]]; standard_errors: [number, number]; correlation: number } | null {
-  const a = boot.replicates.map((r) => r.params[index][names[0]]);
-  const b = boot.replicates.map((r) => r.params[index][names[1]]);
+  const a = boot.replicates.map((r) => r.parameters[index][names[0]]);
+  const b = boot.replicates.map((r) => r.parameters[index][names[1]]);
   if (a.length < 2) return null;
   const cab = sampleCovariance(a, b);
   const cov: [[number, number], [number, number]] = [[sampleVariance(a), cab], [cab, sampleVariance(b)]];

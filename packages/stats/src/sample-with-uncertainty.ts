@@ -58,7 +58,7 @@ export function sampleWithUncertainty(model: UncertainModel, mode: ParameterUnce
   } else {
     const reps = model.replicates ?? [];
     if (reps.length === 0) return { code: 'bad-count', message: 'no bootstrap replicates to draw from' };
-    params = Array.from({ length: draws }, (_, d) => reps[d % reps.length].params);
+    params = Array.from({ length: draws }, (_, d) => reps[d % reps.length].parameters);
     spearmans = Array.from({ length: draws }, (_, d) => reps[d % reps.length].spearman);
   }
   const columns = Array.from({ length: m }, () => new Float64Array(n));
