@@ -13,6 +13,7 @@ import {
   fitNormal,
   fitWeibull,
   mleCovariance,
+  mleParameters,
   normalScoreCorrelation,
   sampleWithUncertainty,
   type FitResult,
@@ -125,6 +126,15 @@ print(json.dumps(out))`,
       }
     });
   }
+
+  it('refits each resample with the same estimates as the full fits (scipy.stats *.fit agree with those, test/stats-fits.test.ts)', () => {
+    for (const family of ['normal', 'lognormal', 'weibull'] as const) {
+      const p = mleParameters(family, samples[family])!;
+      for (const [k, v] of Object.entries(fits[family].params)) expect(Math.abs(p[k] / v - 1), `${family} ${k}`).toBeLessThan(1e-12);
+    }
+    expect(mleParameters('weibull', [1, 2, -3, 4])).toBeNull();
+    expect(mleParameters('normal', [2, 2, 2, NaN])).toBeNull();
+  });
 
   it('is reproducible from its seed and keeps the rows of a resample together', () => {
     const x = samples.normal.slice(0, 60);

@@ -16,9 +16,8 @@
  */
 import { sampleCovariance, sampleStandardDeviation, sampleVariance } from 'simple-statistics';
 import { correlationMatrices } from './correlation.ts';
-import { fitLognormal, fitNormal } from './fit-normal.ts';
-import type { FitResult, ModelName } from './fit-types.ts';
-import { fitWeibull } from './fit-weibull.ts';
+import type { ModelName } from './fit-types.ts';
+import { mleParameters } from './mle-parameters.ts';
 import { uniformStream } from './seeded-generators.ts';
 
 export const BOOTSTRAP_METHOD = 'nonparametric bootstrap of the tests (Efron & Tibshirani 1993), families held fixed';
@@ -44,8 +43,6 @@ export const PARAMETER_NAMES: Record<ModelName, [string, string]> = {
   weibull: ['shape', 'scale'],
 };
 
-const FITTERS: Record<ModelName, (x: ArrayLike<number>) => FitResult | null> = { normal: fitNormal, lognormal: fitLognormal, weibull: fitWeibull };
-
 export function bootstrapModel(columns: readonly ArrayLike<number>[], families: readonly ModelName[], replicates: number, seed: number): ModelBootstrap | { code: 'bad-count'; message: string } {
   if (!(Number.isInteger(replicates) && replicates >= 2)) return { code: 'bad-count', message: `bootstrap replicates must be a whole number ≥ 2, got ${replicates}` };
   const rows = columns.reduce((a, c) => Math.min(a, c.length), Infinity);
@@ -59,14 +56,14 @@ export function bootstrapModel(columns: readonly ArrayLike<number>[], families: 
       const pick = Math.floor(u() * n);
       for (let c = 0; c < columns.length; c++) resampled[c][r] = columns[c][pick];
     }
-    const fits = families.map((f, c) => FITTERS[f](resampled[c]));
+    const fits = families.map((f, c) => mleParameters(f, resampled[c]));
     if (fits.some((f) => f === null)) {
       failed++;
       continue;
     }
     const cols: Record<string, Float64Array> = {};
     resampled.forEach((c, i) => (cols[`c${i}`] = c));
-    out.push({ parameters: fits.map((f) => ({ ...f!.params })), spearman: correlationMatrices(cols).spearman });
+    out.push({ parameters: fits as Record<string, number>[], spearman: correlationMatrices(cols).spearman });
   }
   return { method: BOOTSTRAP_METHOD, requested: replicates, seed, replicates: out, failed };
 }

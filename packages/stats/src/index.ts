@@ -77,3 +77,4 @@ export { sampleCurves } from './sample-curves.ts';
 export type { SampledCurves, SampleCurvesOptions } from './sample-curves.ts';
 export { gaussianCopulaCorrelation } from './copula-correlation.ts';
 export type { GaussianCopula } from './copula-correlation.ts';
+export { mleParameters } from './mle-parameters.ts';
