@@ -14,6 +14,8 @@ export { command as drift } from './commands/drift.ts';
 export { command as exclude } from './commands/exclude.ts';
 export { command as alerts } from './commands/alerts.ts';
 export { command as sample } from './commands/sample.ts';
+export { command as distributions } from './commands/distributions.ts';
+export { command as plan } from './commands/plan.ts';
 export { command as report } from './commands/report.ts';
 export { command as run } from './commands/run.ts';
 export { command as demo } from './commands/demo.ts';

@@ -13,6 +13,7 @@ import {
   type CurvesStageResult,
   type DriftResult,
   type GroupField,
+  type GroupPlan,
   type PopulationOptions,
   hashOf,
 } from '@fractile/pipeline';
@@ -31,6 +32,8 @@ export interface ReportInputs {
   reduceHash: string | null;
   generatedAt: string;
   title?: string;
+  /** sample-size planning per group and property (pipeline runPlan) */
+  planning?: GroupPlan[];
 }
 
 /** Flags that say how a value was obtained rather than that something needs a look. */
@@ -139,6 +142,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       },
     },
     groups: reportGroups,
+    planning: inp.planning,
     drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons }, series, new_alerts: inp.drift.new_alerts } : null,
     quality: {
       rejections: rejections.map((r) => ({ file: r.file, line: r.line, column: r.col, code: r.code, message: r.message })),

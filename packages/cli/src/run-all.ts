@@ -1,5 +1,6 @@
 /**
- * Every stage in order — reduce, aggregate, design curves, drift, report and exports — each
+ * Every stage in order — reduce, aggregate, design curves, drift, the distribution models, sample-size
+ * planning, report and exports — each
  * incremental, so a second run on unchanged data reuses what is stored. Prints the time of each
  * stage on stderr.
  */
@@ -9,14 +10,19 @@ import type { Store } from '@fractile/store';
 import {
   contractView,
   currentReduceHashes,
+  DEFAULT_PLAN_ADDED,
+  DEFAULT_PLAN_PROPERTIES,
   DESIGN_CAUTION,
+  distributionExport,
   driftContract,
   hashOf,
   loadProperties,
   PROPERTY_ROW_KEYS,
   runAggregate,
   runCurves,
+  runDistributions,
   runDrift,
+  runPlan,
   runReduce,
   type Catalog,
   type GroupField,
@@ -79,6 +85,8 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
   const aggregate = await timed(timings, 'stats', () => runAggregate(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION }));
   const curves = await timed(timings, 'curves', () => runCurves(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION, generatedAt: o.generatedAt }));
   const drift = await timed(timings, 'drift', () => runDrift(store, { by: o.driftBy, catalog: o.catalog, codeVersion: CODE_VERSION }));
+  const distributions = await timed(timings, 'sample', () => runDistributions(store, { by: o.by, catalog: o.catalog, codeVersion: CODE_VERSION }));
+  const planning = await timed(timings, 'planning', () => runPlan(store, { by: o.by, properties: DEFAULT_PLAN_PROPERTIES, added: DEFAULT_PLAN_ADDED, catalog: o.catalog, codeVersion: CODE_VERSION }));
   const hashes = await currentReduceHashes(store.db);
   const reduceHash = hashes ? hashOf(hashes) : null;
 
@@ -96,11 +104,13 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
     put('stats.json', withCaution('stats', aggregate.stats, { ...provenance, stats_run: aggregate.run }));
     put('correlations.json', withCaution('correlations', aggregate.correlations, { ...provenance, stats_run: aggregate.run }));
     put('drift.json', withCaution('drift', driftContract(drift), { ...provenance, drift_run: drift.run, drift_grouping: o.driftBy }));
+    put('distributions.json', JSON.stringify(distributionExport(distributions, CODE_VERSION, o.generatedAt), null, 2) + '\n');
+    put('planning.json', withCaution('planning', planning.plans, { ...provenance, stats_run: planning.stats_run }));
     exports.push(...writeCurveFiles(join(out, 'curves'), curves.curves));
   });
   const report = join(out, 'report.html');
   await timed(timings, 'report', async () => {
-    const data = await assembleReport(store, { by: o.by, aggregate, curves, drift, catalog: o.catalog, catalogSource: o.catalogSource, reduceHash, generatedAt: o.generatedAt });
+    const data = await assembleReport(store, { by: o.by, aggregate, curves, drift, catalog: o.catalog, catalogSource: o.catalogSource, reduceHash, generatedAt: o.generatedAt, planning: planning.plans });
     writeFileSync(report, await renderReport(data));
   });
   return { report, exports, timings, alerts: drift.alerts.length };

@@ -12,6 +12,7 @@ import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve, type Des
 import { gradeOfGroup, propertySummaryOptions } from './aggregate/stage.ts';
 import { groupRows, type GroupField } from './aggregate/grouping.ts';
 import type { Catalog } from './catalog.ts';
+import { commonGrid } from './common-grid.ts';
 import type { PopulationOptions } from './population.ts';
 import { populationHash } from './population-hash.ts';
 import { currentGrid, loadPopulation, type PropertyFilter, type PropertyKey, type PropertyRow } from './properties.ts';
@@ -130,12 +131,12 @@ export function designCurves(
     const all = g.rows.map((i) => allRows[i]);
     const members = all.filter(hasGrid);
     if (members.length === 0) continue;
-    const gridsHere = new Set(members.map((r) => JSON.stringify(grids[r.grade] ?? null)));
-    if (gridsHere.size !== 1 || !grids[members[0].grade]) {
+    const shared = commonGrid(members, grids);
+    if (!shared) {
       skipped.push({ group: g.key, reason: 'the tests of this group were reduced on different plastic-strain grids' });
       continue;
     }
-    grid = grids[members[0].grade];
+    grid = shared;
     const tests = members.map((r) => ({
       test_id: `${r.lab}/${r.test_id}`,
       stress_mpa: r.grid_stress_mpa ?? [],

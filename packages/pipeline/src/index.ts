@@ -13,8 +13,17 @@ export type { AlertState, AlertAction, AlertStatus } from './monitor/alert-state
 export * from './design-stage.ts';
 export * from './design/index.ts';
 export * from './reduce/task.ts';
-export * from './sample-stage.ts';
+export * from './sample/property-sets.ts';
+export * from './sample/distribution-model.ts';
 export * from './population.ts';
 export * from './flag-rules.ts';
 export { populationHash } from './population-hash.ts';
 export { csvCell, csvComment, csvLine, csvText, commentJson } from './csv-cell.ts';
+export * from './sample/stage.ts';
+export * from './sample/curve-models.ts';
+export * from './sample/random-curves.ts';
+export * from './sample/distribution-export.ts';
+export * from './sample/random-curves-export.ts';
+export * from './sample/sample-provenance.ts';
+export * from './planning/plan-groups.ts';
+export * from './planning/run-plan.ts';

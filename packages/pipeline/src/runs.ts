@@ -14,7 +14,7 @@ import { hashOf } from './hash.ts';
 export const ALGORITHM_VERSION = '5';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
-export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '4', monitor: '5' } as const;
+export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '4', design: '4', monitor: '5', sample: '1' } as const;
 
 /**
  * Runs a stage alone on the database: two runs of the same stage (two processes on a server, two
