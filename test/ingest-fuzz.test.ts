@@ -16,7 +16,7 @@
  *     curve file, or with its whole file), or repeats an identity of an earlier row.
  */
 import { createHash } from 'node:crypto';
-import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -106,7 +106,7 @@ function lines(s: string, f: (ls: string[]) => void): string {
 /** Replaces one cell of a random data row (column `col`, else a random one). */
 function replaceCell(s: string, value: () => string, col?: number): string {
   return lines(s, (ls) => {
-    const data = ls.map((l, i) => i).filter((i) => /^[\d-]/.test(ls[i]));
+    const data = ls.map((_l, i) => i).filter((i) => /^[\d-]/.test(ls[i]));
     if (!data.length) return;
     const i = pick(data);
     const cells = ls[i].split(',');

@@ -99,6 +99,7 @@ export interface TestBatch {
 
 export const identityKey = (lab: string, testId: string) => `${lab}\u0000${testId}`;
 
+// biome-ignore lint/suspicious/noControlCharactersInRegex: NUL is the character PostgreSQL refuses in text
 const clean = (s: string) => s.replace(/\u0000/g, '\\0');
 
 /** Rejection rows as COPY values, NUL shown as `\0`. */

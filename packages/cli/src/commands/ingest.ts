@@ -47,7 +47,7 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
         if (!['bar', 'lines', 'none'].includes(o.progress)) throw new CliError(`--progress must be bar, lines or none, got "${o.progress}"`);
         const rejected = await withStore(g, async (store) => {
           const bar = o.progress === 'bar' ? progressBar('ingest') : { update: (done: number, total: number) => (o.progress === 'lines' ? log(`ingest: ${done}/${total}`) : undefined), stop() {} };
-          let summary;
+          let summary: Awaited<ReturnType<typeof ingestManifests>>;
           try {
             summary = await ingestManifests(store, manifests.map((path) => ({ path, map: o.map ?? null })), {
               dryRun: Boolean(o.dryRun),

@@ -22,7 +22,7 @@ export interface GroupCurveModel {
   warnings: string[];
 }
 
-const hasGrid = (r: PropertyRow) => Boolean(r.grid_stress_mpa && r.grid_stress_mpa.some((v) => v !== null));
+const hasGrid = (r: PropertyRow) => Boolean(r.grid_stress_mpa?.some((v) => v !== null));
 
 export function groupCurveModels(rows: PropertyRow[], grids: Record<string, number[]>, by: GroupField[], opts: CurveModelOptions = {}): GroupCurveModel[] {
   const out: GroupCurveModel[] = [];
