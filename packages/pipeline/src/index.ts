@@ -10,7 +10,7 @@ export * from './aggregate/stage.ts';
 export * from './monitor/stage.ts';
 export { alertId, recordAlertAction, AlertStateError, ALERT_ACTIONS } from './monitor/alert-state.ts';
 export type { AlertState, AlertAction, AlertStatus } from './monitor/alert-state.ts';
-export * from './design-stage.ts';
+export * from './design/stage.ts';
 export * from './design/index.ts';
 export * from './reduce/task.ts';
 export * from './sample/property-sets.ts';

@@ -78,3 +78,39 @@ export async function latestRun(db: Kysely<Database>, stage: StageName): Promise
     .executeTakeFirst();
   return row ? { id: Number(row.id), settings_hash: row.settings_hash, code_version: row.code_version, finished_at: row.finished_at, counts: row.counts } : null;
 }
+
+/** What one stage run needs: its settings and inputs, how to read a finished run back, how to compute one. */
+export interface StageWork<R> {
+  stage: StageName;
+  settings: object;
+  /** Hash of the inputs (null where the settings alone key the run). */
+  inputHash: string | null;
+  codeVersion: string;
+  /** The results of a finished run with these settings and inputs; null when they cannot be read back. */
+  reuse(runId: number): Promise<R | null>;
+  /** Computes and stores the results under `runId`; the counts go to the run row. */
+  compute(runId: number, settingsHash: string): Promise<{ result: R; counts: Record<string, number> }>;
+}
+
+/**
+ * The life of a stage run, one place for every stage: store the settings, reuse a finished run of
+ * the same settings and inputs, else start a run row, compute, and mark it `done` with its counts
+ * — or `failed` when the computation throws (the error is rethrown).
+ */
+export async function runStage<R>(db: Kysely<Database>, work: StageWork<R>): Promise<{ run: number; reused: boolean; settingsHash: string; result: R }> {
+  const settingsHash = await saveSettings(db, work.stage, work.settings);
+  const done = await findDoneRun(db, work.stage, settingsHash, work.inputHash);
+  if (done) {
+    const result = await work.reuse(done.id);
+    if (result !== null) return { run: done.id, reused: true, settingsHash, result };
+  }
+  const run = await startRun(db, work.stage, settingsHash, work.inputHash, work.codeVersion);
+  try {
+    const { result, counts } = await work.compute(run, settingsHash);
+    await finishRun(db, run, counts);
+    return { run, reused: false, settingsHash, result };
+  } catch (e) {
+    await finishRun(db, run, {}, 'failed');
+    throw e;
+  }
+}

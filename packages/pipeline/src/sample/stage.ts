@@ -13,7 +13,7 @@ import type { GroupField } from '../aggregate/grouping.ts';
 import type { PopulationOptions } from '../population.ts';
 import { populationHash } from '../population-hash.ts';
 import { currentGrid, loadPopulation, type PropertyFilter, type PropertyKey } from '../properties.ts';
-import { STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { runStage, STAGE_VERSIONS } from '../runs.ts';
 import { groupCurveModels, type GroupCurveModel } from './curve-models.ts';
 import { distributionModels, type GroupDistribution } from './distribution-model.ts';
 
@@ -66,17 +66,19 @@ async function storedRun<T extends { group: Record<string, string> }>(
   compute: () => T[],
 ): Promise<{ run: number; reused: boolean; items: T[] }> {
   const db = store.db;
-  const settingsHash = await saveSettings(db, 'sample', settings);
-  const done = await findDoneRun(db, 'sample', settingsHash, inputHash);
-  if (done) {
-    const rows = await db.selectFrom('group_results').select(['body']).where('run_id', '=', done.id).where('stage', '=', 'sample').execute();
-    return { run: done.id, reused: true, items: rows.map((r) => (typeof r.body === 'string' ? JSON.parse(r.body) : r.body) as T).sort(byGroup) };
-  }
-  const run = await startRun(db, 'sample', settingsHash, inputHash, codeVersion);
-  const items = compute();
-  await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], items.map((m) => [run, 'sample', JSON.stringify(m.group), String(settings.kind), JSON.stringify(m)]));
-  await finishRun(db, run, { groups: items.length });
-  return { run, reused: false, items: [...items].sort(byGroup) };
+  const r = await runStage(db, {
+    stage: 'sample', settings, inputHash, codeVersion,
+    reuse: async (id) => {
+      const rows = await db.selectFrom('group_results').select(['body']).where('run_id', '=', id).where('stage', '=', 'sample').execute();
+      return rows.map((r) => (typeof r.body === 'string' ? JSON.parse(r.body) : r.body) as T);
+    },
+    compute: async (run) => {
+      const items = compute();
+      await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], items.map((m) => [run, 'sample', JSON.stringify(m.group), String(settings.kind), JSON.stringify(m)]));
+      return { result: items, counts: { groups: items.length } };
+    },
+  });
+  return { run: r.run, reused: r.reused, items: [...r.result].sort(byGroup) };
 }
 
 export async function runDistributions(store: Store, opts: DistributionStageOptions): Promise<DistributionStageResult> {
