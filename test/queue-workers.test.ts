@@ -12,18 +12,11 @@
  * differently).
  */
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
-import { ingestManifests } from '@fractile/ingest';
-import { runReduce } from '@fractile/pipeline';
 import { enqueueIngest, enqueueReduce, watchRequest } from '@fractile/queue';
-import { generateBenchmarkSet } from '@fractile/seed-demo';
-import { openStore, type Store } from '@fractile/store';
-import { createEmbeddedFolder, createServerDatabase } from './support/databases.ts';
-import { contentFingerprint, fingerprintDifferences, FRACTILE_BIN, integrityCounts, startWorkerProcess } from './support/queue-fixture.ts';
+import { createEmbeddedFolder } from './support/databases.ts';
+import { contentFingerprint, prepareQueueCheck, type QueueCheck, fingerprintDifferences, FRACTILE_BIN, integrityCounts, startWorkerProcess } from './support/queue-fixture.ts';
 
 const SERVER = process.env.TEST_DATABASE_URL;
 const TESTS = 5000;
@@ -47,40 +40,22 @@ describe('--queue on an embedded folder', () => {
 if (!SERVER) console.warn('queue-workers: TEST_DATABASE_URL is not set: the job-queue checks need a PostgreSQL server and are skipped');
 
 describe.skipIf(!SERVER)('3 worker processes against one process (5,000 tests)', () => {
-  let dir: string;
-  let manifest: string;
-  const dbs: { url: string; drop(): Promise<void> }[] = [];
-  let reference: Store;
-  let queued: Store;
-
+  let c: QueueCheck;
   beforeAll(async () => {
-    dir = mkdtempSync(path.join(tmpdir(), 'fractile-queue-'));
-    const set = generateBenchmarkSet({ outDir: dir, tests: TESTS, points: 200, seed: 14 });
-    manifest = path.join(set.outDir, set.manifest);
-    for (let i = 0; i < 2; i++) dbs.push(await createServerDatabase(SERVER!));
-    reference = await openStore(dbs[0].url);
-    queued = await openStore(dbs[1].url);
-    await ingestManifests(reference, [{ path: manifest }], { workers: 0, codeVersion: 'queue-check' });
-    await runReduce(reference, { catalog: null, workers: 0, codeVersion: 'queue-check' });
+    c = await prepareQueueCheck(SERVER!, { tests: TESTS, points: 200, seed: 14 });
   });
-
-  afterAll(async () => {
-    await reference?.close();
-    await queued?.close();
-    for (const d of dbs) await d.drop();
-    if (dir) rmSync(dir, { recursive: true, force: true });
-  });
+  afterAll(async () => c?.close());
 
   it('ends with the same tests and results, each once, and every run consistent', async () => {
-    const workers = [0, 1, 2].map(() => startWorkerProcess(dbs[1].url));
+    const workers = [0, 1, 2].map(() => startWorkerProcess(c.queuedUrl));
     try {
-      const ingest = await enqueueIngest(queued, [manifest], { partRows: 400 });
+      const ingest = await enqueueIngest(c.queued, [c.manifest], { partRows: 400 });
       expect(ingest.parts).toBe(Math.ceil(TESTS / 400));
-      const ingested = await watchRequest(queued, ingest.request, () => {}, 250);
+      const ingested = await watchRequest(c.queued, ingest.request, () => {}, 250);
       expect(ingested.failed).toBe(0);
-      const reduce = await enqueueReduce(queued, { catalog: null, batchSize: 250, thenStages: { by: 'grade', driftBy: 'supplier,grade' } });
+      const reduce = await enqueueReduce(c.queued, { catalog: null, batchSize: 250, thenStages: { by: 'grade', driftBy: 'supplier,grade' } });
       expect(reduce.parts).toBe(TESTS / 250);
-      const reduced = await watchRequest(queued, reduce.request, () => {}, 250);
+      const reduced = await watchRequest(c.queued, reduce.request, () => {}, 250);
       expect(reduced).toMatchObject({ done: reduce.parts, failed: 0, stages_done: true });
     } finally {
       for (const w of workers) w.child.kill('SIGTERM');
@@ -88,22 +63,22 @@ describe.skipIf(!SERVER)('3 worker processes against one process (5,000 tests)',
     const exits = await Promise.all(workers.map((w) => w.exited));
     expect(exits.map((e) => e.code), workers.map((w) => w.log()).join('\n')).toEqual([0, 0, 0]);
 
-    const want = await contentFingerprint(reference);
-    const got = await contentFingerprint(queued);
+    const want = await contentFingerprint(c.reference);
+    const got = await contentFingerprint(c.queued);
     expect(want.size).toBe(TESTS);
     expect(fingerprintDifferences(want, got)).toEqual([]);
-    expect(await integrityCounts(queued)).toEqual(await integrityCounts(reference));
+    expect(await integrityCounts(c.queued)).toEqual(await integrityCounts(c.reference));
 
     // every part once in the ledger, the stages once; the work was spread over the workers
-    const parts = await sql<{ kind: string; n: number }>`select kind, count(*)::int as n from queue_parts group by kind order by kind`.execute(queued.db);
+    const parts = await sql<{ kind: string; n: number }>`select kind, count(*)::int as n from queue_parts group by kind order by kind`.execute(c.queued.db);
     expect(parts.rows).toEqual([
       { kind: 'ingest', n: Math.ceil(TESTS / 400) },
       { kind: 'reduce', n: TESTS / 250 },
       { kind: 'stages', n: 1 },
     ]);
-    const stages = await sql<{ stage: string; status: string; n: number }>`select stage, status, count(*)::int as n from stage_runs where stage <> 'reduce' group by stage, status order by stage`.execute(queued.db);
+    const stages = await sql<{ stage: string; status: string; n: number }>`select stage, status, count(*)::int as n from stage_runs where stage <> 'reduce' group by stage, status order by stage`.execute(c.queued.db);
     expect(stages.rows.map((r) => `${r.stage} ${r.status} ${r.n}`)).toEqual(['aggregate done 1', 'design done 1', 'monitor done 1']);
-    const runs = await sql<{ n: number }>`select count(distinct queue_job)::int as n from stage_runs where stage = 'reduce' and status = 'done'`.execute(queued.db);
+    const runs = await sql<{ n: number }>`select count(distinct queue_job)::int as n from stage_runs where stage = 'reduce' and status = 'done'`.execute(c.queued.db);
     expect(runs.rows[0].n).toBe(TESTS / 250);
   });
 });

@@ -6,9 +6,16 @@
  * the order the parts commit).
  */
 import { spawn, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { sql } from 'kysely';
-import type { Store } from '@fractile/store';
+import { ingestManifests } from '@fractile/ingest';
+import { runReduce } from '@fractile/pipeline';
+import { generateBenchmarkSet } from '@fractile/seed-demo';
+import { openStore, type Store } from '@fractile/store';
+import { createServerDatabase } from './databases.ts';
 
 export const FRACTILE_BIN = fileURLToPath(new URL('../../packages/cli/bin/fractile.js', import.meta.url));
 
@@ -62,4 +69,41 @@ export async function integrityCounts(store: Store): Promise<{ tests: number; id
            (select count(*) from stage_runs where status = 'running')::int as "runningStageRuns",
            (select count(*) from ingest_runs where status = 'running')::int as "runningIngestRuns"`.execute(store.db);
   return r.rows[0];
+}
+
+export interface QueueCheck {
+  manifest: string;
+  /** the in-process reference: ingestManifests then runReduce, one process */
+  reference: Store;
+  /** an empty database for the queued run, and its URL */
+  queued: Store;
+  queuedUrl: string;
+  close(): Promise<void>;
+}
+
+/**
+ * A generated benchmark set (seed-demo, `points`-point curves), a reference database filled by
+ * one process, and an empty database for the queue, both fresh on the server at `serverUrl`.
+ */
+export async function prepareQueueCheck(serverUrl: string, o: { tests: number; points: number; seed: number }): Promise<QueueCheck> {
+  const dir = mkdtempSync(path.join(tmpdir(), 'fractile-queue-'));
+  const set = generateBenchmarkSet({ outDir: dir, tests: o.tests, points: o.points, seed: o.seed });
+  const manifest = path.join(set.outDir, set.manifest);
+  const dbs = [await createServerDatabase(serverUrl), await createServerDatabase(serverUrl)];
+  const reference = await openStore(dbs[0].url);
+  const queued = await openStore(dbs[1].url);
+  await ingestManifests(reference, [{ path: manifest }], { workers: 0, codeVersion: 'queue-check' });
+  await runReduce(reference, { catalog: null, workers: 0, codeVersion: 'queue-check' });
+  return {
+    manifest,
+    reference,
+    queued,
+    queuedUrl: dbs[1].url,
+    async close() {
+      await reference.close();
+      await queued.close();
+      for (const d of dbs) await d.drop();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
 }
