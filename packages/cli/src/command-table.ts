@@ -19,3 +19,5 @@ export { command as plan } from './commands/plan.ts';
 export { command as report } from './commands/report.ts';
 export { command as run } from './commands/run.ts';
 export { command as demo } from './commands/demo.ts';
+export { command as worker } from './commands/worker.ts';
+export { command as queue } from './commands/queue.ts';

@@ -39,6 +39,11 @@ export interface IngestOptions {
   codeVersion?: string;
   /** worker threads that read curve files (see curve-pool.ts; 0 reads in-process) */
   workers?: number;
+  /**
+   * only the records and rejections whose manifest line is in [from, to) (a queued part, queue
+   * package); whole-file findings (line 0) belong to the part with from = 0
+   */
+  lines?: { from: number; to: number };
 }
 
 export interface IngestSummary {
@@ -59,6 +64,9 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
   const dryRun = opts.dryRun ?? false;
   const batchSize = Math.max(1, Math.floor(opts.batchSize ?? 200));
   const inputs = await scanInputs(manifests);
+  const lines = opts.lines;
+  const keep = lines ? (line: number) => line >= lines.from && line < lines.to : undefined;
+  if (keep) inputs.rejected = inputs.rejected.filter((r) => keep(r.line));
   const pool = curvePool(inputs.rows, opts.workers);
   const sum: IngestSummary = { run: 0, accepted: 0, duplicates: 0, replaced: 0, rejected: [...inputs.rejected], dry_run: dryRun };
   let done = 0;
@@ -69,7 +77,7 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
     if (!dryRun) await recordSourceFiles(store.db, [{ sha256: m.scan.sha256, name: m.input.path, size_bytes: m.scan.sizeBytes }, ...(m.map ? [{ sha256: m.map.sha256, name: m.input.map!, size_bytes: m.map.size }] : [])]);
     let writing: Promise<void> | null = null;
     try {
-      for await (const b of manifestBatches(m.input.path, batchSize, (rec) => writing && pool.ahead(rec, map))) {
+      for await (const b of manifestBatches(m.input.path, batchSize, (rec) => writing && pool.ahead(rec, map), keep)) {
         if (writing) await writing;
         const src = { run: sum.run, manifestPath: m.input.path, manifestSha256: m.scan.sha256, map: m.map, records: b.records, pool, replace: opts.replace ?? false };
         writing = (async () => {
@@ -101,7 +109,7 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
     if (dryRun) return await ingestAll();
     return await store.exclusive('ingest', async () => {
       await abandonRunningIngests(store.db);
-      const settings = { manifests: inputs.settings, replace: opts.replace ?? false, batch_size: batchSize };
+      const settings = { manifests: inputs.settings, replace: opts.replace ?? false, batch_size: batchSize, ...(lines ? { lines } : {}) };
       sum.run = await startIngestRun(store.db, settings, opts.codeVersion ?? INGEST_VERSION);
       try {
         await storeRejections(store, sum.run, inputs.rejected);

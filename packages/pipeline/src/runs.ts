@@ -41,10 +41,11 @@ export async function saveSettings(db: Kysely<Database>, stage: StageName, body:
   return hash;
 }
 
-export async function startRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null, codeVersion: string): Promise<number> {
+/** Records a run as `running`; `queueJob` names the queued job that started it (null in-process). */
+export async function startRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null, codeVersion: string, queueJob: string | null = null): Promise<number> {
   const row = await db
     .insertInto('stage_runs')
-    .values({ stage, settings_hash: settingsHash, input_hash: inputHash, code_version: codeVersion, counts: JSON.stringify({}) })
+    .values({ stage, settings_hash: settingsHash, input_hash: inputHash, code_version: codeVersion, counts: JSON.stringify({}), queue_job: queueJob })
     .returning('id')
     .executeTakeFirstOrThrow();
   return Number(row.id);

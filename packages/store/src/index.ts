@@ -16,6 +16,7 @@ export type { StoreErrorCode } from './store-error.ts';
 export { HOLDER_FILE, lockFolder } from './folder-lock.ts';
 export type { FolderLock, LockHolder } from './folder-lock.ts';
 export type { Exclusive } from './exclusive.ts';
+export { lockKey } from './exclusive.ts';
 export { writeTestBatch, identityKey, TEST_COLUMNS, CURVE_COLUMNS, SUMMARY_COLUMNS, REJECTION_COLUMNS } from './test-batch.ts';
 export type { BatchEntry, BatchOutcome, BatchRecord, CurveLiterals, RejectionValues, StoredVersion, SummaryRowValues, TestBatch, TestValues } from './test-batch.ts';
 export { abandonRunningIngests, failIngestRun, finishIngestRun, recordSourceFiles, startIngestRun, storeRejections } from './ingest-runs.ts';

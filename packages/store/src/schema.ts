@@ -152,6 +152,27 @@ export interface AlertActionsTable {
   acted_at: Generated<Date>;
 }
 
+/** Work handed to the job queue, one row per request (migration 0060, queue package). */
+export interface QueueRequestsTable {
+  id: Generated<number>;
+  kind: 'ingest' | 'reduce';
+  created_at: Generated<Date>;
+  parts: number;
+  settings: Json;
+  then_stages: Generated<boolean>;
+  followup_at: Date | null;
+  cancelled_at: Date | null;
+}
+
+/** A part of a queued request whose work is committed (part -1: the follow-up stages). */
+export interface QueuePartsTable {
+  request_id: number;
+  part: number;
+  kind: 'ingest' | 'reduce' | 'stages';
+  finished_at: Generated<Date>;
+  counts: Json;
+}
+
 export interface RawTables {
   source_files: SourceFilesTable;
   ingest_runs: IngestRunsTable;
@@ -164,6 +185,8 @@ export interface RawTables {
   rejections: RejectionsTable;
   exclusions: ExclusionsTable;
   alert_actions: AlertActionsTable;
+  queue_requests: QueueRequestsTable;
+  queue_parts: QueuePartsTable;
 }
 
 export interface Database extends RawTables, ResultTables {}

@@ -8,6 +8,7 @@ import { CliError, emit, globals, log, type CommandModule } from '../context.ts'
 import { progressBar } from '../progress.ts';
 import { withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
+import { queueIngest, wholeNumber } from '../queue-target.ts';
 
 export const EXIT_REJECTED = 3;
 
@@ -24,6 +25,9 @@ export const command: CommandModule = {
       .option('--batch-size <n>', 'tests per transaction', '200')
       .option('--workers <n>', 'worker threads that parse curve files (default: cores − 1, at most 8, none below 4 cores; 0: none)')
       .option('--progress <mode>', 'progress on stderr: bar (a terminal only), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
+      .option('--queue', 'PostgreSQL server: enqueue the manifests in parts for `fractile worker` processes instead of ingesting here')
+      .option('--part-rows <n>', 'with --queue: manifest rows per job', '500')
+      .option('--watch', 'with --queue: show the progress until every part is done (exit 1 if a job failed)')
       .addHelpText(
         'after',
         `
@@ -36,7 +40,7 @@ out_of_range, value_too_long, invalid_text, not_stored (the database refused tha
 Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rejected (the rest is stored), 2 on bad usage,
 4 when the embedded database folder is in use by another process (see --wait), 1 on failure.`,
       )
-      .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string; workers?: string }, cmd: Command) => {
+      .action(async (manifests: string[], o: { map?: string; dryRun?: boolean; replace?: boolean; batchSize: string; progress: string; workers?: string; queue?: boolean; partRows: string; watch?: boolean }, cmd: Command) => {
         const { formatRejection, ingestManifests } = await import('@fractile/ingest');
         const g = globals(cmd);
         const batchSize = Number(o.batchSize);
@@ -45,6 +49,11 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
         const workers = o.workers === undefined ? undefined : Number(o.workers);
         if (workers !== undefined && (!Number.isInteger(workers) || workers < 0)) throw new CliError(`--workers must be a whole number ≥ 0, got "${o.workers}"`);
         if (!['bar', 'lines', 'none'].includes(o.progress)) throw new CliError(`--progress must be bar, lines or none, got "${o.progress}"`);
+        if (o.queue) {
+          const partRows = wholeNumber(o.partRows, '--part-rows', 1);
+          if (o.dryRun) throw new CliError('--dry-run checks in this process: use it without --queue');
+          return queueIngest(g, manifests, { map: o.map, replace: o.replace, batchSize, partRows, watch: Boolean(o.watch), progress: o.progress });
+        }
         const rejected = await withStore(g, async (store) => {
           const bar = o.progress === 'bar' ? progressBar('ingest') : { update: (done: number, total: number) => (o.progress === 'lines' ? log(`ingest: ${done}/${total}`) : undefined), stop() {} };
           let summary: Awaited<ReturnType<typeof ingestManifests>>;

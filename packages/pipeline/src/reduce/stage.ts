@@ -25,6 +25,10 @@ export interface ReduceStageOptions {
   batchSize?: number;
   codeVersion: string;
   onProgress?: (done: number, total: number) => void;
+  /** only these test row ids (a queued batch, queue package; default: every current test) */
+  testIds?: readonly number[];
+  /** the queued job running this batch, recorded in its run row */
+  queueJob?: string;
 }
 
 export interface ReduceStageSummary {
@@ -106,6 +110,16 @@ export function runReduce(store: Store, opts: ReduceStageOptions): Promise<Reduc
   return exclusiveStage(store, 'reduce', () => reduceAlone(store, opts));
 }
 
+/**
+ * Reduces one batch of test row ids (`opts.testIds`) beside other batches: disjoint batches
+ * write disjoint result keys, so they need not take turns; a batch run twice (a retried job)
+ * finds the rows committed before and computes the rest. Its run row is left `running` by a
+ * killed worker and marked by the queue when the job is handed out again.
+ */
+export function runReduceBatch(store: Store, opts: ReduceStageOptions & { testIds: readonly number[] }): Promise<ReduceStageSummary> {
+  return reduceAlone(store, opts);
+}
+
 async function reduceAlone(store: Store, opts: ReduceStageOptions): Promise<ReduceStageSummary> {
   const t0 = performance.now();
   const db = store.db;
@@ -122,7 +136,8 @@ async function reduceAlone(store: Store, opts: ReduceStageOptions): Promise<Redu
     catalog: opts.catalog,
   };
   const runSettingsHash = await saveSettings(db, 'reduce', body);
-  const run = await startRun(db, 'reduce', runSettingsHash, null, opts.codeVersion);
+  const run = await startRun(db, 'reduce', runSettingsHash, null, opts.codeVersion, opts.queueJob ?? null);
+  const subset = opts.testIds ? sql`and t.id = any(${sql.val([...opts.testIds])}::bigint[])` : sql``;
 
   const todo = grades.length
     ? (
@@ -130,12 +145,14 @@ async function reduceAlone(store: Store, opts: ReduceStageOptions): Promise<Redu
           with m as (select * from unnest(${sql.val(grades)}::text[], ${sql.val(grades.map((g) => settingsByGrade.get(g)!.hash))}::text[]) as m(grade, hash))
           select t.id, g.code as grade
           from tests t join grades g on g.id = t.grade_id join m on m.grade = g.code
-          where t.is_current and not exists (
+          where t.is_current ${subset} and not exists (
             select 1 from test_results r where r.test_pk = t.id and r.settings_hash = m.hash and r.algorithm_version = ${ALGORITHM_VERSION})
           order by t.id`.execute(db)
       ).rows.map((r) => ({ id: Number(r.id), grade: r.grade }))
     : [];
-  const current = await db.selectFrom('tests').select((eb) => eb.fn.countAll<string>().as('n')).where('is_current', '=', true).executeTakeFirstOrThrow();
+  let currentQuery = db.selectFrom('tests').select((eb) => eb.fn.countAll<string>().as('n')).where('is_current', '=', true);
+  if (opts.testIds) currentQuery = currentQuery.where('id', 'in', opts.testIds.length ? [...opts.testIds] : [-1]);
+  const current = await currentQuery.executeTakeFirstOrThrow();
   const unchanged = Number(current.n) - todo.length;
 
   const workers = Math.max(0, opts.workers ?? availableParallelism());
