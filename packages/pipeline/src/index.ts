@@ -18,3 +18,4 @@ export * from './population.ts';
 export * from './flag-rules.ts';
 export { populationHash } from './population-hash.ts';
 export { csvCell, csvComment, csvLine, csvText, commentJson } from './csv-cell.ts';
+export * from './reduce/at-ingest.ts';
