@@ -10,6 +10,10 @@
  * judged against the stored version of its identity (classify.ts): new, duplicate, conflict, or a
  * replacement with `replace`. A re-run skips what was committed and completes the rest.
  *
+ * With a `reducer`, every test is reduced as it is stored (batch-entries.ts, curve-task.ts): the
+ * worker that parsed a curve reduces it while its channels are in memory, and the per-test row is
+ * written in the batch's transaction.
+ *
  * The whole run holds the database's `ingest` section (store `exclusive`): a second ingest waits
  * for the first, and runs a killed process left `running` are marked `abandoned` when the next
  * one starts.
@@ -17,13 +21,13 @@
 import { readFileSync } from 'node:fs';
 import type { Store } from '@fractile/store';
 import { abandonRunningIngests, failIngestRun, finishIngestRun, recordSourceFiles, startIngestRun, storeRejections, writeTestBatch } from '@fractile/store';
-import { testBatch } from './batch-entries.ts';
+import { curveReduceInput, testBatch, type IngestReducer } from './batch-entries.ts';
 import { curvePool } from './curve-pool.ts';
 import { manifestBatches } from './manifest-batches.ts';
 import type { Rejection } from './rejection.ts';
 import { scanInputs, type ManifestInput, type ScannedManifest } from './scan-inputs.ts';
 
-export type { ManifestInput };
+export type { ManifestInput, IngestReducer };
 
 const INGEST_VERSION = (JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string }).version;
 
@@ -44,6 +48,11 @@ export interface IngestOptions {
    * package); whole-file findings (line 0) belong to the part with from = 0
    */
   lines?: { from: number; to: number };
+  /**
+   * reduce each test as it is stored, in the worker that read its curve, and write its per-test
+   * result in the batch's transaction (ignored by a dry run)
+   */
+  reducer?: IngestReducer | null;
 }
 
 export interface IngestSummary {
@@ -67,7 +76,8 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
   const lines = opts.lines;
   const keep = lines ? (line: number) => line >= lines.from && line < lines.to : undefined;
   if (keep) inputs.rejected = inputs.rejected.filter((r) => keep(r.line));
-  const pool = curvePool(inputs.rows, opts.workers);
+  const reducer = dryRun ? null : (opts.reducer ?? null);
+  const pool = curvePool(inputs.rows, opts.workers, curveReduceInput(reducer));
   const sum: IngestSummary = { run: 0, accepted: 0, duplicates: 0, replaced: 0, rejected: [...inputs.rejected], dry_run: dryRun };
   let done = 0;
   const progress = () => opts.onProgress?.(Math.min(done, inputs.rows), inputs.rows);
@@ -79,7 +89,7 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
     try {
       for await (const b of manifestBatches(m.input.path, batchSize, (rec) => writing && pool.ahead(rec, map), keep)) {
         if (writing) await writing;
-        const src = { run: sum.run, manifestPath: m.input.path, manifestSha256: m.scan.sha256, map: m.map, records: b.records, pool, replace: opts.replace ?? false };
+        const src = { run: sum.run, manifestPath: m.input.path, manifestSha256: m.scan.sha256, map: m.map, records: b.records, pool, replace: opts.replace ?? false, store, reducer };
         writing = (async () => {
           const outcomes = await writeTestBatch(store, testBatch(src), { dryRun });
           sum.rejected.push(...b.rejections);

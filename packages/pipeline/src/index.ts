@@ -27,3 +27,4 @@ export * from './sample/random-curves-export.ts';
 export * from './sample/sample-provenance.ts';
 export * from './planning/plan-groups.ts';
 export * from './planning/run-plan.ts';
+export * from './reduce/at-ingest.ts';
