@@ -8,6 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import Ajv2020 from 'ajv/dist/2020.js';
+import addFormats from 'ajv-formats';
 import { generateDemo, type DemoManifest } from '@fractile/seed-demo';
 
 const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
@@ -20,7 +22,7 @@ function fractile(...args: string[]): { status: number | null; stdout: string; s
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'drift', 'alerts', 'report', 'run', 'demo'];
+const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'distributions', 'plan', 'drift', 'alerts', 'report', 'run', 'demo'];
 
 beforeAll(() => {
   demo = generateDemo({ outDir: join(dir, 'scenario'), tests: 60, seed: 11, pointsPerCurve: 500 });
@@ -122,6 +124,51 @@ describe('fractile command line', () => {
     expect((sim[0].simultaneous as Record<string, number>).simulations).toBe(300);
   });
 
+  it('feeds probabilistic analyses: the distribution export, random curves, sets with parameter uncertainty, the planning table', () => {
+    // the documented export (docs/distribution-export.md) validates against its schema (Ajv)
+    const d = fractile('distributions', '--db', db, '--by', 'grade', '--bootstrap', '50', '--format', 'json');
+    expect(d.status, d.stderr).toBe(0);
+    const doc = JSON.parse(d.stdout);
+    const ajv = new Ajv2020({ strict: false });
+    addFormats(ajv);
+    const validate = ajv.compile(JSON.parse(readFileSync(new URL('../docs/distribution-export.schema.json', import.meta.url), 'utf8')));
+    expect(validate(doc), JSON.stringify(validate.errors)).toBe(true);
+    expect(doc.groups.length).toBeGreaterThan(0);
+    expect(doc.groups[0].bootstrap.replicates.length).toBeGreaterThan(40);
+    // the model is a stored run of the sample stage: the same settings on the same tests reuse it
+    const again = fractile('distributions', '--db', db, '--by', 'grade', '--bootstrap', '50', '--format', 'json');
+    expect(again.stderr).toMatch(/stored model reused/);
+    expect(JSON.parse(again.stdout).groups.map((g: { marginals: unknown }) => g.marginals)).toEqual(doc.groups.map((g: { marginals: unknown }) => g.marginals));
+    // random curves: a long CSV after # lines with the caution; each sample ends at its uniform strain
+    const c = fractile('sample', '--curves', '--db', db, '--by', 'grade', '--n', '5', '--format', 'csv');
+    expect(c.status, c.stderr).toBe(0);
+    const lines = c.stdout.split('\n');
+    expect(lines[0]).toBe('# fractile-random-curves, csv format 1');
+    expect(c.stdout).toMatch(/^# caution: Statistical estimates from the data given/m);
+    const header = lines.find((l) => !l.startsWith('#'))!;
+    expect(header).toBe('grade,sample,plastic_strain,true_stress_mpa');
+    const j = JSON.parse(fractile('sample', '--curves', '--db', db, '--by', 'grade', '--n', '5', '--format', 'json').stdout);
+    expect(j.caution).toMatch(/licensed engineer/);
+    const curve = j.groups.find((g: { n: number }) => g.n > 0).curves[0];
+    expect(curve.plastic_strain.at(-1)).toBe(curve.uniform_plastic_strain);
+    const rowsOfFirst = lines.filter((l) => /^[^#].*,1,/.test(l) && l.startsWith(j.groups.find((g: { n: number }) => g.n > 0).group.grade + ',1,'));
+    expect(rowsOfFirst.length).toBe(curve.plastic_strain.length);
+    // property sets drawn with parameter uncertainty carry the model draw they come from
+    const u = fractile('sample', '--db', db, '--n', '20', '--parameter-uncertainty', 'bootstrap', '--parameter-draws', '4', '--bootstrap', '50', '--format', 'csv');
+    expect(u.status, u.stderr).toBe(0);
+    expect(u.stdout).toMatch(/parameter uncertainty bootstrap with 4 draws/);
+    expect(u.stdout.split('\n').find((l) => !l.startsWith('#'))).toMatch(/^grade,set,parameter_draw,/);
+    // the planning table: the value now and after 10, 20, 50 more tests
+    const p = JSON.parse(fractile('plan', '--db', db, '--property', 'yield_mpa', '--replicates', '200', '--format', 'json').stdout);
+    const planned = p.plans.find((x: { plan: unknown }) => x.plan);
+    expect(planned.plan.rows.map((r: { added: number }) => r.added)).toEqual([0, 10, 20, 50]);
+    // bad options are named
+    const bad = fractile('sample', '--db', db, '--parameter-uncertainty', 'guess');
+    expect(bad.status).toBe(2);
+    expect(bad.stderr).toMatch(/--parameter-uncertainty must be one of none, asymptotic, bootstrap/);
+    expect(fractile('plan', '--db', db, '--add', '10,x').stderr).toMatch(/--add must be a whole number/);
+  });
+
   it('writes the report and the exports, each carrying the caution', () => {
     const out = join(dir, 'out');
     const r = fractile('report', '--db', db, '--out', out);
@@ -130,7 +177,7 @@ describe('fractile command line', () => {
     expect(html).toMatch(/licensed engineer/);
     expect(html).toMatch(/The characteristic curve is a pointwise bound/);
     expect(readFileSync(join(out, 'curves', 'curves.json'), 'utf8')).toMatch(/"band": "pointwise"/);
-    for (const f of ['properties.csv', 'stats.json', 'drift.json', 'curves/curves.json']) {
+    for (const f of ['properties.csv', 'stats.json', 'drift.json', 'curves/curves.json', 'distributions.json', 'planning.json']) {
       expect(existsSync(join(out, f)), f).toBe(true);
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/licensed engineer/);
     }

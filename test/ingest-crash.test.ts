@@ -48,7 +48,7 @@ async function contents(target: string) {
   try {
     const rows = await sql<{ lab: string; test_id: string; version: number; content_sha256: string; source_sha256: string | null; n_points: number | null; force_sum: number | null }>`
       select t.lab, t.test_id, t.version, t.content_sha256, c.source_sha256, c.n_points,
-             (select sum(v) from unnest(c.force_n) as v) as force_sum
+             (select sum(v) from unnest(curve_channel(c.force_n)) as v) as force_sum
       from tests t left join curves c on c.test_row_id = t.id order by t.lab, t.test_id, t.version`.execute(store.db);
     const counts = await sql<{ tests: number; curves: number; orphans: number; grades: number; suppliers: number; heats: number }>`
       select (select count(*) from tests)::int as tests, (select count(*) from curves)::int as curves,

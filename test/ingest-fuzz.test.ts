@@ -6,7 +6,8 @@
  * UTF-8, UTF-16 text, NaN and Infinity, zero geometry, 2 MB lines, paths out of the folder,
  * formula-like text, characters and lines deleted, inserted, repeated, swapped or cut), plus
  * mutations that leave the file valid with other numbers. All of it goes through one ingest,
- * which must not throw or hang. Then for every case:
+ * which reduces every test as it stores it (the reduction reads the channels, and must leave
+ * them as the file says), and must not throw or hang. Then for every case:
  *   - a test that was stored holds exactly what the file says, read independently
  *     (support/fuzz-oracle.ts): every curve value (bit for bit), n, metadata, geometry, S0 and
  *     summary values;
@@ -16,13 +17,14 @@
  *     curve file, or with its whole file), or repeats an identity of an earlier row.
  */
 import { createHash } from 'node:crypto';
-import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
 import { ingestManifests, REJECTION_CODES, type IngestSummary } from '@fractile/ingest';
-import type { Store } from '@fractile/store';
+import { channelFromBytes, type Store } from '@fractile/store';
+import { startIngestReduction } from '@fractile/pipeline';
 import { testDatabases } from './support/databases.ts';
 import { expectedTest, readCurve, readManifestRows } from './support/fuzz-oracle.ts';
 import { mulberry32 } from './support/random.ts';
@@ -106,7 +108,7 @@ function lines(s: string, f: (ls: string[]) => void): string {
 /** Replaces one cell of a random data row (column `col`, else a random one). */
 function replaceCell(s: string, value: () => string, col?: number): string {
   return lines(s, (ls) => {
-    const data = ls.map((l, i) => i).filter((i) => /^[\d-]/.test(ls[i]));
+    const data = ls.map((_l, i) => i).filter((i) => /^[\d-]/.test(ls[i]));
     if (!data.length) return;
     const i = pick(data);
     const cells = ls[i].split(',');
@@ -146,6 +148,7 @@ describe.each(testDatabases().filter((d) => d.name === 'pglite'))('ingest fuzzin
   let store: Store;
   let dir: string;
   let summary: IngestSummary;
+  let reduced: { reduced: number; failed: number; given: number };
   const files = new Map<string, Buffer>(); // absolute path → content
   const manifests: string[] = [];
 
@@ -174,10 +177,18 @@ describe.each(testDatabases().filter((d) => d.name === 'pglite'))('ingest fuzzin
       manifests.push(put(`m/${j}.csv`, encode(mutate(base, MANIFEST_MUTATIONS))));
     }
     store = await tdb.open();
-    summary = await ingestManifests(store, manifests.map((p) => ({ path: p })), { batchSize: 50, workers: 0 });
+    const reduction = await startIngestReduction(store, { catalog: null, codeVersion: 'fuzz' });
+    summary = await ingestManifests(store, manifests.map((p) => ({ path: p })), { batchSize: 50, workers: 0, reducer: reduction.reducer });
+    reduced = (await reduction.finish()).atIngest;
   }, 300_000);
   afterAll(async () => {
     await store?.close();
+  });
+
+  it('reduced every test it stored, at ingest', async () => {
+    expect(reduced.reduced + reduced.failed + reduced.given).toBe(summary.accepted);
+    const n = await sql<{ n: number }>`select count(*)::int as n from test_results`.execute(store.db);
+    expect(n.rows[0].n).toBe(summary.accepted);
   });
 
   it('stores exactly what each file says, for every test it accepted', async () => {
@@ -215,7 +226,8 @@ describe.each(testDatabases().filter((d) => d.name === 'pglite'))('ingest fuzzin
         if (t.n_points !== curve.n) bad.push(`${where}: ${t.n_points} points stored, the file has ${curve.n}`);
         const col: Record<string, string> = { time: 'time_s', force: 'force_n', extension: 'extension_mm', crosshead: 'crosshead_mm', stress: 'stress_mpa', strain: 'strain' };
         for (const [ch, values] of Object.entries(curve.channels)) {
-          const got = t[col[ch]] as number[];
+          const bytes = t[col[ch]] as Uint8Array | null;
+          const got = bytes === null ? null : channelFromBytes(bytes);
           if (!got || got.length !== values.length || values.some((v, i) => !Object.is(got[i], v))) bad.push(`${where}: ${ch} stored differs from the file`);
         }
       }

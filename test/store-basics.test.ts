@@ -1,11 +1,12 @@
 /**
- * The store on both engines: migrations, COPY round trip (escaping and exact float8 arrays),
+ * The store on both engines: migrations, COPY round trip (escaping; curve channels exactly, by
+ * binary COPY, read back by SELECT and by binary COPY TO, and decoded in SQL by curve_channel),
  * transactions (COPY on the transaction's connection, rolled back with it), the schema's checks,
  * and the query helpers with keyset pagination.
  */
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
-import { iterateCurrentTests, listTests, migrateToLatest } from '@fractile/store';
+import { channelBytes, channelFromBytes, CURVE_COLUMNS, CURVE_TYPES, iterateCurrentTests, listTests, migrateToLatest } from '@fractile/store';
 import type { Store } from '@fractile/store';
 import { testDatabases } from './support/databases.ts';
 
@@ -43,7 +44,7 @@ describe.each(testDatabases())('store on $name', (tdb) => {
     for (const t of ['source_files', 'ingest_runs', 'grades', 'suppliers', 'heats', 'tests', 'curves', 'summary_records', 'rejections']) expect(names).toContain(t);
   });
 
-  it('COPY round-trips text with tab, newline, backslash and NULL, and float8 arrays exactly', async () => {
+  it('COPY round-trips text with tab, newline, backslash and NULL, and curve channels exactly', async () => {
     const text = 'tab\there, line\nbreak, back\\slash, CR\r, "quoted", {braces}';
     const n = await store.copyRows('rejections', ['run_id', 'file', 'line', 'col', 'code', 'message'], [[7, text, 3, 4, 'x', text]]);
     expect(n).toBe(1);
@@ -54,8 +55,9 @@ describe.each(testDatabases())('store on $name', (tdb) => {
     const ids = await seedBasics(store);
     const t = await store.db.insertInto('tests').values(testRow(ids, 'T1')).returning('id').executeTakeFirstOrThrow();
     // values whose shortest decimal form is long; -0 and subnormals must survive exactly
-    const values = new Float64Array([0.1 + 0.2, 1 / 3, -0, 5e-324, 1.7976931348623157e308, 123456.789, -2.5e-7]);
-    await store.copyRows('curves', ['test_row_id', 'n_points', 'force_n', 'extension_mm', 'time_s', 'source_sha256', 'source_path'], [[t.id, values.length, values, Array.from(values), null, SHA('c'), 'c.csv']]);
+    const values = new Float64Array([0.1 + 0.2, 1 / 3, -0, 5e-324, 2.2250738585072014e-308, 1.7976931348623157e308, 123456.789, -2.5e-7]);
+    const bytes = channelBytes(values);
+    await store.copyBinaryRows('curves', CURVE_COLUMNS, CURVE_TYPES, [[t.id, values.length, null, bytes, bytes, null, null, null, SHA('c'), 'c.csv/ü\t']]);
     const [stored] = await iterateCurrentTests(store.db, { batchSize: 10 }).next().then((x) => x.value ?? []);
     expect(stored.curve).not.toBeNull();
     for (let i = 0; i < values.length; i++) {
@@ -63,7 +65,21 @@ describe.each(testDatabases())('store on $name', (tdb) => {
       expect(Object.is(stored.curve!.extensionMm![i], values[i])).toBe(true);
     }
     expect(stored.curve!.timeS).toBeNull();
+    expect(stored.curve!.sourcePath).toBe('c.csv/ü\t');
     expect(stored.testedOn).toBe('2024-03-05');
+    // read back by binary COPY TO: the same bytes, NULL as null, text as written
+    const out = await store.copyOutBinary('select test_row_id, n_points, force_n, time_s, source_path from curves', ['int8', 'int4', 'bytea', 'bytea', 'text']);
+    expect(out).toHaveLength(1);
+    expect(out[0][0]).toBe(t.id);
+    expect(out[0][1]).toBe(values.length);
+    expect(Buffer.from(out[0][2] as Uint8Array).equals(Buffer.from(bytes))).toBe(true);
+    expect(out[0][3]).toBeNull();
+    expect(out[0][4]).toBe('c.csv/ü\t');
+    expect(Array.from(channelFromBytes(out[0][2] as Uint8Array)).every((v, i) => Object.is(v, values[i]))).toBe(true);
+    // decoded in SQL (migration 0040: curve_channel and the view curve_arrays), value for value
+    const v = await sql<{ force_n: number[] | string[]; time_s: unknown }>`select force_n, time_s from curve_arrays`.execute(store.db);
+    expect(v.rows[0].time_s).toBeNull();
+    expect(v.rows[0].force_n.map(Number).every((x, i) => Object.is(x, values[i]))).toBe(true);
   });
 
   it('COPY inside a transaction is rolled back with it', async () => {

@@ -3,7 +3,9 @@
  * with fsync off a crash of the machine can lose committed transactions), and on the embedded
  * engine a commit reaches the operating system's fsync — its file layer is given one
  * (packages/store/src/pglite-durability.ts), and the WAL is flushed with fsync() rather than the
- * inert fdatasync().
+ * inert fdatasync(). On a server fsync is its operator's setting; the check stands for a server run
+ * the way PostgreSQL ships it (and as `.ci/run` starts one), so a test server with fsync off fails
+ * here rather than quietly measuring something else.
  */
 import fs from 'node:fs';
 import { afterEach, describe, expect, it, vi } from 'vitest';

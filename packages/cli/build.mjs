@@ -1,5 +1,5 @@
-// Compiles the `fractile` command to JavaScript (esbuild): packages/cli/dist/fractile.mjs and the
-// reduce worker dist/reduce-worker.mjs, with our workspace packages and the small pure-JavaScript
+// Compiles the `fractile` command to JavaScript (esbuild): packages/cli/dist/fractile.mjs, the
+// reduce worker dist/reduce-worker.mjs and the ingest's curve worker dist/ingest-worker.mjs, with our workspace packages and the small pure-JavaScript
 // registry packages (BUNDLED) bundled in, and every other package left to Node's own resolution. Code split at the dynamic
 // imports, so `fractile --help` loads the command table and commander, not the database engine.
 // Each source file keeps its own `import.meta.url`, so paths it resolves relative to itself
@@ -85,7 +85,11 @@ export async function build({ clean = false } = {}) {
   configFiles.push(path.join(root, 'seed-demo', 'package.json'));
   const result = await esbuild({
     absWorkingDir: root,
-    entryPoints: { fractile: path.join(cliDir, 'src/main.ts'), 'reduce-worker': path.join(root, 'packages/pipeline/src/reduce/worker.ts') },
+    entryPoints: {
+      fractile: path.join(cliDir, 'src/main.ts'),
+      'reduce-worker': path.join(root, 'packages/pipeline/src/reduce/worker.ts'),
+      'ingest-worker': path.join(root, 'packages/ingest/src/curve-worker.ts'),
+    },
     outdir: DIST,
     outExtension: { '.js': '.mjs' },
     bundle: true,
@@ -98,7 +102,10 @@ export async function build({ clean = false } = {}) {
     logLevel: 'silent',
     // bundled CommonJS packages require Node's built-in modules through this
     banner: { js: "import { createRequire as __fractileRequire } from 'node:module'; const require = __fractileRequire(import.meta.url);" },
-    define: { FRACTILE_REDUCE_WORKER: JSON.stringify(pathToFileURL(path.join(DIST, 'reduce-worker.mjs')).href) },
+    define: {
+      FRACTILE_REDUCE_WORKER: JSON.stringify(pathToFileURL(path.join(DIST, 'reduce-worker.mjs')).href),
+      FRACTILE_INGEST_WORKER: JSON.stringify(pathToFileURL(path.join(DIST, 'ingest-worker.mjs')).href),
+    },
     plugins: [sources],
   });
   // a file changed since the build started is recorded as unknown (-1): the next start rebuilds

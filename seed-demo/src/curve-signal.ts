@@ -105,7 +105,7 @@ export function synthesizeSignal(curve: EngineeringCurve, spec: SpecimenSetup, m
   }
   let j = 0;
   let tOffset = 0;
-  let xOffset = 0;
+  const xOffset = 0;
   let loopDone = opts.loopAtStrain === null;
   let frozenExt: number | null = null;
   let lastExt = 0;

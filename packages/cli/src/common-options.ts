@@ -154,3 +154,19 @@ export async function withStore<T>(g: GlobalOptions, fn: (store: Store) => Promi
     await store.close();
   }
 }
+
+/** A whole number ≥ `min` from an option, or the default when the option is absent. */
+export function wholeNumber(s: unknown, name: string, dflt: number, min = 1): number {
+  if (s === undefined) return dflt;
+  const x = Number(s);
+  if (!Number.isInteger(x) || x < min) throw new CliError(`${name} must be a whole number ≥ ${min}, got "${String(s)}"`);
+  return x;
+}
+
+/** A comma-separated list of whole numbers ≥ `min` (e.g. `--add 10,20,50`). */
+export function wholeNumbers(s: unknown, name: string, dflt: number[], min = 1): number[] {
+  if (s === undefined) return dflt;
+  const parts = String(s).split(',').map((x) => x.trim()).filter(Boolean);
+  if (parts.length === 0) throw new CliError(`${name} needs at least one number`);
+  return parts.map((p) => wholeNumber(p, name, 0, min));
+}

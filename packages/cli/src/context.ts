@@ -3,10 +3,14 @@
  * `--format json` prints exactly one JSON document on stdout; logs and progress go to stderr.
  */
 import type { Command } from 'commander';
+import { csvLine } from '@fractile/pipeline/csv-cell';
 import { CliError } from './cli-error.ts';
+import { chooseDb } from './db-target.ts';
+import { toTable } from './output.ts';
 import { loadProject, type Project } from './project.ts';
 
 export { CliError };
+export { toTable };
 
 export interface CommandModule {
   /** position in `--help` */
@@ -51,12 +55,35 @@ export function globals(cmd: Command): GlobalOptions {
 /** "stats", or "alerts ack" for a subcommand. */
 function commandName(cmd: Command): string {
   const names: string[] = [];
-  for (let c: Command | null = cmd; c && c.parent; c = c.parent) names.unshift(c.name());
+  for (let c: Command | null = cmd; c?.parent; c = c.parent) names.unshift(c.name());
   return names.join(' ') || cmd.name();
 }
 
 export function log(message: string): void {
   process.stderr.write(message + '\n');
+}
+
+/** The database target as chosen by db-target.ts (--db, $DATABASE_URL, the project file, the default). */
+export function dbTarget(g: GlobalOptions): string {
+  return chooseDb(g, g.project).target;
+}
+
+/** CSV text of rows with the given columns (all keys of the first row by default); cells formula-safe (pipeline csv-cell.ts). */
+export function toCsv(rows: readonly Record<string, unknown>[], columns?: readonly string[]): string {
+  const cols = columns ?? (rows[0] ? Object.keys(rows[0]) : []);
+  const lines = [csvLine(cols)];
+  for (const r of rows) lines.push(csvLine(cols.map((c) => r[c])));
+  return `${lines.join('\n')}\n`;
+}
+
+/**
+ * Prints `data` in the chosen format without the envelope: used by `queue`, `distributions` and
+ * `plan`, which have not moved to output.ts `print` yet.
+ */
+export function emit(format: OutputFormat, data: unknown, rows: readonly Record<string, unknown>[], columns?: readonly string[]): void {
+  if (format === 'json') process.stdout.write(`${JSON.stringify(data, null, 2)}\n`);
+  else if (format === 'csv') process.stdout.write(toCsv(rows, columns));
+  else process.stdout.write(toTable(rows, columns));
 }
 
 /** Exit status when another process holds the embedded database folder (try again later). */

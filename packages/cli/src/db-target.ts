@@ -72,6 +72,6 @@ export function requireEmbeddedDatabase(c: DbChoice): void {
   const nearby = databasesNearby().filter((d) => resolve(d) !== resolve(c.target));
   const hint = nearby.length ? `\n  a database exists at ${nearby.join(', ')}: pass --db ${nearby[0]}, or run the commands in its project folder (its fractile.json names it)` : '';
   throw new CliError(
-    `${where} (${said(c)}).\n  Create one with \`fractile ingest MANIFEST.csv\` (README \"Your own data\"), or try \`fractile demo\`.${hint}`,
+    `${where} (${said(c)}).\n  Create one with \`fractile ingest MANIFEST.csv\` (README "Your own data"), or try \`fractile demo\`.${hint}`,
   );
 }

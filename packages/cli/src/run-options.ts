@@ -27,7 +27,7 @@ export interface ExportChoice {
 
 /** The output folder must be a folder or not exist yet. */
 export function checkOutFolder(out: string, option = '--out'): void {
-  let st;
+  let st: ReturnType<typeof statSync>;
   try {
     st = statSync(out);
   } catch {

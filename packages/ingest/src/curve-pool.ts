@@ -1,17 +1,22 @@
 /**
- * Curve files read ahead of the batch writer: in worker threads (piscina) when there are enough
- * cores and rows, else in-process. `ahead(rec)` starts reading a record's curve if fewer than
- * `lookahead` reads are pending; `take(rec)` gives the read (started now if it was not), once.
- * Memory: at most `lookahead` parsed curves wait at a time, whatever the batch size. Reading
- * overlaps COPY: while a curve is written the next ones are parsed.
+ * Curve files read (and, when the ingest reduces, reduced: curve-task.ts) ahead of the batch
+ * writer: in worker threads (piscina) when asked for and there are enough rows, else in-process.
+ * `ahead(rec)` starts reading a record's curve if fewer than `lookahead` reads are pending;
+ * `take(rec)` gives the read (started now if it was not), once. Memory: at most `lookahead`
+ * parsed curves wait at a time, whatever the batch size. Reading overlaps COPY: while a curve is
+ * written the next ones are parsed.
  *
- * Workers (default): one less than the cores, at most 8, and none below 4 cores, where the
- * database and the main thread need them; used only for inputs of at least 64 rows.
+ * Workers (default): one on two or three cores, one less than the cores from four on, at most 8;
+ * used only for inputs of at least 64 rows. The embedded engine runs on the main thread, so even
+ * on two cores one worker lets parsing and reducing overlap the database's work. Measured with
+ * 1,000 tests × 2,000 points on two shared cores: see README, Benchmarks.
+ * The compiled command line runs the compiled worker (`FRACTILE_INGEST_WORKER`, set by
+ * packages/cli/build.mjs); from the sources, a bootstrap registers the TypeScript loader.
  */
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
 import type { ColumnMap } from './column-map.ts';
-import { runCurveTask, type CurveTask, type CurveTaskResult } from './curve-task.ts';
+import { runCurveTask, type CurveReduceInput, type CurveTask, type CurveTaskResult } from './curve-task.ts';
 import type { ManifestRecord } from './manifest-reader.ts';
 
 export interface CurvePool {
@@ -20,17 +25,28 @@ export interface CurvePool {
   destroy(): Promise<void>;
 }
 
-export function curvePool(rows: number, workersOption: number | undefined): CurvePool {
-  const cores = availableParallelism();
-  const workers = Math.max(0, Math.floor(workersOption ?? (cores >= 4 ? Math.min(8, cores - 1) : 0)));
+/** Set by the CLI build (packages/cli/build.mjs) to the compiled worker; undefined when run from the sources. */
+declare const FRACTILE_INGEST_WORKER: string | undefined;
+const WORKER_URL = typeof FRACTILE_INGEST_WORKER === 'string' ? FRACTILE_INGEST_WORKER : new URL('./curve-worker.mjs', import.meta.url).href;
+
+/** The default number of curve workers on this machine. */
+export function defaultCurveWorkers(cores = availableParallelism()): number {
+  return cores >= 4 ? Math.min(8, cores - 1) : cores >= 2 ? 1 : 0;
+}
+
+/**
+ * @param reduceFor what to reduce a record's curve with, or null not to reduce it
+ */
+export function curvePool(rows: number, workersOption: number | undefined, reduceFor: (rec: ManifestRecord) => CurveReduceInput | null = () => null): CurvePool {
+  const workers = Math.max(0, Math.floor(workersOption ?? defaultCurveWorkers()));
   const pool =
     workers > 0 && rows >= 64
-      ? new Piscina({ filename: new URL('./curve-worker.mjs', import.meta.url).href, minThreads: workers, maxThreads: workers, resourceLimits: { maxOldGenerationSizeMb: 96 } })
+      ? new Piscina({ filename: WORKER_URL, minThreads: workers, maxThreads: workers, resourceLimits: { maxOldGenerationSizeMb: 96 } })
       : null;
-  const lookahead = pool ? 2 * workers : 2;
+  const lookahead = pool ? 2 * workers + 2 : 2;
   const pending = new Map<ManifestRecord, Promise<CurveTaskResult>>();
   const read = (rec: ManifestRecord, map: ColumnMap | null): Promise<CurveTaskResult> => {
-    const task: CurveTask = { absPath: rec.curve!.absPath, displayPath: rec.curve!.displayPath, map };
+    const task: CurveTask = { absPath: rec.curve!.absPath, displayPath: rec.curve!.displayPath, map, reduce: reduceFor(rec) };
     const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
     p.catch(() => {});
     return p;

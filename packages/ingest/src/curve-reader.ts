@@ -20,7 +20,6 @@ import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName, ColumnMap } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
-import { ArrayLiteralBuilder } from './array-literal.ts';
 import { emptyTail, parseCell, splitHeader } from './parse-cell.ts';
 import { checkRange } from './plausible-range.ts';
 import type { Rejection } from './rejection.ts';
@@ -46,18 +45,10 @@ export interface CurveChannels {
 }
 
 export type CurveReadResult =
-  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; texts: Partial<Record<ChannelName, string>> }
+  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels }
   | { ok: false; rejection: Rejection };
 
 export interface CurveReadOptions {
-  /**
-   * also return, as a float8[] literal (array-literal.ts), the cells' text of channels already in
-   * canonical units with a decimal point (factor 1, offset 0): validated decimal numbers that
-   * PostgreSQL's float8 input reads to the same double as Number() (both round correctly), so
-   * COPY can reuse them without reformatting.
-   * The plain reader also gives text for power-of-ten factors (kN → N; see plain-curve.ts).
-   */
-  keepText?: boolean;
   /** always use the general (csv-parse) reader, not the fast one for plain files */
   general?: boolean;
 }
@@ -84,8 +75,6 @@ interface Bound {
   index: number; // 0-based cell index
   def: UnitDef;
   values: Growable;
-  /** the cells' own text, kept where the unit is already canonical (see `keepText`) */
-  text: ArrayLiteralBuilder | null;
 }
 
 class Stop extends Error {
@@ -104,7 +93,7 @@ function bindDefault(file: string, line: number, header: string[]): Bound[] {
     if (unit === null) throw new Stop(reject(file, line, i + 1, 'unknown_unit', `channel "${channel}" has no unit: write ${channel}[unit]`));
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) throw new Stop(reject(file, line, i + 1, 'unknown_unit', unknownUnitMessage(unit, channel, CHANNEL_QUANTITY[channel])));
-    bound.push({ channel, index: i, def, values: new Growable(), text: null });
+    bound.push({ channel, index: i, def, values: new Growable() });
   });
   return bound;
 }
@@ -124,7 +113,7 @@ function bindMapped(file: string, line: number, header: string[] | null, map: Co
       if (index < 0 && header) index = header.findIndex((h) => h.trim().toLowerCase() === name.toLowerCase());
       if (index < 0) throw new Stop(reject(file, line, 0, 'missing_column', `column "${spec.column}" (${channel}) is not in the header`));
     }
-    bound.push({ channel, index, def: spec.def, values: new Growable(), text: null });
+    bound.push({ channel, index, def: spec.def, values: new Growable() });
   }
   return bound;
 }
@@ -146,14 +135,14 @@ function checkChannels(file: string, line: number, bound: Bound[], header: strin
  */
 export async function readCurveFile(absPath: string, displayPath: string, map: ColumnMap | null, opts: CurveReadOptions = {}): Promise<CurveReadResult> {
   if (!map && !opts.general) {
-    const plain = await readPlainFile(absPath, opts.keepText ?? false);
+    const plain = await readPlainFile(absPath);
     if (plain) return plain;
   }
   return readGeneral(absPath, displayPath, map, opts);
 }
 
 /** The fast reader's result for a plain, valid file; null otherwise (including read errors). */
-async function readPlainFile(absPath: string, keepText: boolean): Promise<CurveReadResult | null> {
+async function readPlainFile(absPath: string): Promise<CurveReadResult | null> {
   let buf: Buffer;
   try {
     const fh = await open(absPath, 'r');
@@ -167,20 +156,19 @@ async function readPlainFile(absPath: string, keepText: boolean): Promise<CurveR
   } catch {
     return null;
   }
-  const r = readPlainCurve(buf, MIN_CURVE_POINTS, keepText);
+  const r = readPlainCurve(buf, MIN_CURVE_POINTS);
   if (!r) return null;
   const v = r.values;
   return {
     ok: true,
     sha256: r.sha256,
     sizeBytes: r.sizeBytes,
-    texts: r.texts,
     channels: { nPoints: r.nPoints, time: v.time ?? null, force: v.force ?? null, extension: v.extension ?? null, crosshead: v.crosshead ?? null, stress: v.stress ?? null, strain: v.strain ?? null },
   };
 }
 
 /** The general, streaming reader (csv-parse): any dialect, and every rejection. */
-async function readGeneral(absPath: string, displayPath: string, map: ColumnMap | null, opts: CurveReadOptions): Promise<CurveReadResult> {
+async function readGeneral(absPath: string, displayPath: string, map: ColumnMap | null, _opts: CurveReadOptions): Promise<CurveReadResult> {
   const file = displayPath;
   const decimal = map?.decimal ?? '.';
   const skip = map ? (map.headerRow > 0 ? map.headerRow - 1 : map.dataRow - 1) : 0;
@@ -202,9 +190,6 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
   let time: Bound | undefined;
   let prevTime = -Infinity;
 
-  const keepTexts = (bs: Bound[]) => {
-    if (opts.keepText && decimal === '.') for (const b of bs) if (b.def.factor === 1 && b.def.offset === 0) b.text = new ArrayLiteralBuilder();
-  };
   const consume = async () => {
     let records = 0;
     for await (const rec of parser as AsyncIterable<string[]>) {
@@ -215,7 +200,6 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
         checkChannels(file, line, bound, rec);
         cells = rec.length;
         time = bound.find((b) => b.channel === 'time');
-        keepTexts(bound);
         continue;
       }
       if (map && line < map.dataRow) continue;
@@ -228,12 +212,11 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
           const what = r.code === 'missing_value' ? (rec.length <= b.index ? 'row ends before this column (truncated line?)' : 'empty cell') : r.code === 'not_finite' ? `not a finite number: ${showCell(rec[b.index])}` : `not a number: ${showCell(rec[b.index])}`;
           throw new Stop(reject(file, line, b.index + 1, r.code, `${b.channel}: ${what}`));
         }
-        const value = r.value * b.def.factor + b.def.offset;
+        // an offset of 0 is not added: −0 stays −0, as the cell says
+        const value = b.def.offset === 0 ? r.value * b.def.factor : r.value * b.def.factor + b.def.offset;
         const range = checkRange(b.def.quantity, value);
         if (range) throw new Stop(reject(file, line, b.index + 1, 'out_of_range', `${b.channel}: ${showCell(rec[b.index])} is ${range}`));
         b.values.push(value);
-        // a token that underflows (1e-400) would be an error for float8 input: write the value then
-        if (b.text) b.text.push(r.value === 0 || Math.abs(r.value) < 1e-300 ? (r.value === 0 && 1 / r.value < 0 ? '-0' : String(r.value)) : rec[b.index].trim());
       }
       if (rec.length < cells) throw new Stop(reject(file, line, rec.length + 1, 'wrong_cell_count', `the row has ${rec.length} cells, the ${headerWanted ? 'header' : 'first row'} ${cells}: a missing delimiter or a cut row`));
       if (time) {
@@ -250,7 +233,6 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
       bound = bindMapped(file, 0, null, map!);
       checkChannels(file, 0, bound);
       time = bound.find((b) => b.channel === 'time');
-      keepTexts(bound);
     }
     await Promise.all([pipeline(createReadStream(absPath), scanner, parser), consume()]);
   } catch (e) {
@@ -271,13 +253,10 @@ async function readGeneral(absPath: string, displayPath: string, map: ColumnMap 
   if (!bound || (headerWanted && headerLine === 0)) return { ok: false, rejection: reject(file, 0, 0, 'curve_too_short', 'empty curve file (no header, no points)') };
   if (n < MIN_CURVE_POINTS) return { ok: false, rejection: reject(file, lastLine || headerLine, 0, 'curve_too_short', `${n} points; a curve needs at least ${MIN_CURVE_POINTS}`) };
   const get = (c: ChannelName) => (bound as Bound[]).find((b) => b.channel === c)?.values.take() ?? null;
-  const texts: Partial<Record<ChannelName, string>> = {};
-  for (const b of bound as Bound[]) if (b.text) texts[b.channel] = b.text.finish();
   return {
     ok: true,
     sha256: scanner.sha256,
     sizeBytes: scanner.bytes,
-    texts,
     channels: { nPoints: n, time: get('time'), force: get('force'), extension: get('extension'), crosshead: get('crosshead'), stress: get('stress'), strain: get('strain') },
   };
 }

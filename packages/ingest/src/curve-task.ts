@@ -1,46 +1,60 @@
 /**
- * One curve file made ready for COPY: read and validated (curve-reader.ts), then each channel
- * written as a float8[] array literal. Runs in a worker thread (curve-worker.mjs) or in-process;
- * only the literals cross back, so the main thread only forwards text to the database.
+ * One curve file read and validated (curve-reader.ts) and, when asked, reduced at once while its
+ * channels are in memory (the pipeline's per-test reduction, `@fractile/pipeline/reduce-one`,
+ * pure; the row comes back without its test row id, which the batch writer assigns). Runs in a
+ * worker thread (curve-worker.mjs, or the compiled `ingest-worker.mjs`) or in-process; the
+ * channels come back as Float64Arrays whose buffers the worker transfers (not copies), ready for
+ * binary COPY.
  *
- * The literal is written here (array-literal.ts) rather than with the store's encoder so that a
- * worker thread loads nothing of the database drivers (its memory stays small); where the reader
- * kept the cells' own text as a literal, that is used as it is.
+ * The reduction is speculative: a record that turns out to be a duplicate or is rejected for its
+ * geometry afterwards has been reduced for nothing (its row is dropped).
  */
-import type { ChannelName, ColumnMap } from './column-map.ts';
-import { float8ArrayLiteral } from './array-literal.ts';
-import { readCurveFile } from './curve-reader.ts';
+import { reduceOne, type ReduceRow } from '@fractile/pipeline/reduce-one';
+import type { ReduceSettings } from '@fractile/curves';
+import type { ColumnMap } from './column-map.ts';
+import { readCurveFile, type CurveChannels } from './curve-reader.ts';
 import type { Rejection } from './rejection.ts';
+
+/** What to reduce a curve with: its grade's settings (and their hash) and the record's geometry. */
+export interface CurveReduceInput {
+  settingsHash: string;
+  settings: ReduceSettings;
+  areaMm2: number | null;
+  gaugeLengthMm: number | null;
+}
 
 export interface CurveTask {
   absPath: string;
   displayPath: string;
   map: ColumnMap | null;
+  reduce: CurveReduceInput | null;
 }
 
 export type CurveTaskResult =
-  | { ok: true; sha256: string; sizeBytes: number; nPoints: number; literals: Record<ChannelName, string | null> }
+  | { ok: true; sha256: string; sizeBytes: number; channels: CurveChannels; reduced: ReduceRow | null }
   | { ok: false; rejection: Rejection };
 
 export async function runCurveTask(task: CurveTask): Promise<CurveTaskResult> {
-  const r = await readCurveFile(task.absPath, task.displayPath, task.map, { keepText: true });
+  const r = await readCurveFile(task.absPath, task.displayPath, task.map);
   if (!r.ok) return r;
   const c = r.channels;
-  const lit = (a: Float64Array | null, text: string | undefined) => (a === null ? null : (text ?? float8ArrayLiteral(a)));
-  return {
-    ok: true,
-    sha256: r.sha256,
-    sizeBytes: r.sizeBytes,
-    nPoints: c.nPoints,
-    literals: {
-      time: lit(c.time, r.texts.time),
-      force: lit(c.force, r.texts.force),
-      extension: lit(c.extension, r.texts.extension),
-      crosshead: lit(c.crosshead, r.texts.crosshead),
-      stress: lit(c.stress, r.texts.stress),
-      strain: lit(c.strain, r.texts.strain),
-    },
-  };
+  const reduced = task.reduce
+    ? reduceOne({
+        testPk: 0,
+        settingsHash: task.reduce.settingsHash,
+        settings: task.reduce.settings,
+        curve: { timeS: c.time, forceN: c.force, extensionMm: c.extension, crossheadMm: c.crosshead, stressMpa: c.stress, strain: c.strain, areaMm2: task.reduce.areaMm2, gaugeLengthMm: task.reduce.gaugeLengthMm },
+        summary: null,
+      })
+    : null;
+  return { ok: true, sha256: r.sha256, sizeBytes: r.sizeBytes, channels: c, reduced };
+}
+
+/** The channel buffers of a result, to transfer from the worker. */
+export function resultBuffers(r: CurveTaskResult): ArrayBuffer[] {
+  if (!r.ok) return [];
+  const c = r.channels;
+  return [c.time, c.force, c.extension, c.crosshead, c.stress, c.strain].flatMap((a) => (a && a.buffer instanceof ArrayBuffer ? [a.buffer] : []));
 }
 
 export default runCurveTask;

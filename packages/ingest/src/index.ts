@@ -1,5 +1,6 @@
 export { ingestManifests } from './ingest-manifests.ts';
-export type { IngestOptions, IngestSummary, ManifestInput } from './ingest-manifests.ts';
+export type { IngestOptions, IngestReducer, IngestSummary, ManifestInput } from './ingest-manifests.ts';
+export { defaultCurveWorkers } from './curve-pool.ts';
 export { classify } from './classify.ts';
 export type { Decision, StoredTest } from './classify.ts';
 export { checkRange, PLAUSIBLE_BOUND } from './plausible-range.ts';

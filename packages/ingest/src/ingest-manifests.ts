@@ -10,6 +10,10 @@
  * judged against the stored version of its identity (classify.ts): new, duplicate, conflict, or a
  * replacement with `replace`. A re-run skips what was committed and completes the rest.
  *
+ * With a `reducer`, every test is reduced as it is stored (batch-entries.ts, curve-task.ts): the
+ * worker that parsed a curve reduces it while its channels are in memory, and the per-test row is
+ * written in the batch's transaction.
+ *
  * The whole run holds the database's `ingest` section (store `exclusive`): a second ingest waits
  * for the first, and runs a killed process left `running` are marked `abandoned` when the next
  * one starts.
@@ -17,13 +21,13 @@
 import { readFileSync } from 'node:fs';
 import type { Store } from '@fractile/store';
 import { abandonRunningIngests, failIngestRun, finishIngestRun, recordSourceFiles, startIngestRun, storeRejections, writeTestBatch } from '@fractile/store';
-import { testBatch } from './batch-entries.ts';
+import { curveReduceInput, testBatch, type IngestReducer } from './batch-entries.ts';
 import { curvePool } from './curve-pool.ts';
 import { manifestBatches } from './manifest-batches.ts';
 import type { Rejection } from './rejection.ts';
 import { scanInputs, type ManifestInput, type ScannedManifest } from './scan-inputs.ts';
 
-export type { ManifestInput };
+export type { ManifestInput, IngestReducer };
 
 const INGEST_VERSION = (JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string }).version;
 
@@ -39,6 +43,16 @@ export interface IngestOptions {
   codeVersion?: string;
   /** worker threads that read curve files (see curve-pool.ts; 0 reads in-process) */
   workers?: number;
+  /**
+   * only the records and rejections whose manifest line is in [from, to) (a queued part, queue
+   * package); whole-file findings (line 0) belong to the part with from = 0
+   */
+  lines?: { from: number; to: number };
+  /**
+   * reduce each test as it is stored, in the worker that read its curve, and write its per-test
+   * result in the batch's transaction (ignored by a dry run)
+   */
+  reducer?: IngestReducer | null;
 }
 
 export interface IngestSummary {
@@ -59,7 +73,11 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
   const dryRun = opts.dryRun ?? false;
   const batchSize = Math.max(1, Math.floor(opts.batchSize ?? 200));
   const inputs = await scanInputs(manifests);
-  const pool = curvePool(inputs.rows, opts.workers);
+  const lines = opts.lines;
+  const keep = lines ? (line: number) => line >= lines.from && line < lines.to : undefined;
+  if (keep) inputs.rejected = inputs.rejected.filter((r) => keep(r.line));
+  const reducer = dryRun ? null : (opts.reducer ?? null);
+  const pool = curvePool(inputs.rows, opts.workers, curveReduceInput(reducer));
   const sum: IngestSummary = { run: 0, accepted: 0, duplicates: 0, replaced: 0, rejected: [...inputs.rejected], dry_run: dryRun };
   let done = 0;
   const progress = () => opts.onProgress?.(Math.min(done, inputs.rows), inputs.rows);
@@ -69,9 +87,9 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
     if (!dryRun) await recordSourceFiles(store.db, [{ sha256: m.scan.sha256, name: m.input.path, size_bytes: m.scan.sizeBytes }, ...(m.map ? [{ sha256: m.map.sha256, name: m.input.map!, size_bytes: m.map.size }] : [])]);
     let writing: Promise<void> | null = null;
     try {
-      for await (const b of manifestBatches(m.input.path, batchSize, (rec) => writing && pool.ahead(rec, map))) {
+      for await (const b of manifestBatches(m.input.path, batchSize, (rec) => writing && pool.ahead(rec, map), keep)) {
         if (writing) await writing;
-        const src = { run: sum.run, manifestPath: m.input.path, manifestSha256: m.scan.sha256, map: m.map, records: b.records, pool, replace: opts.replace ?? false };
+        const src = { run: sum.run, manifestPath: m.input.path, manifestSha256: m.scan.sha256, map: m.map, records: b.records, pool, replace: opts.replace ?? false, store, reducer };
         writing = (async () => {
           const outcomes = await writeTestBatch(store, testBatch(src), { dryRun });
           sum.rejected.push(...b.rejections);
@@ -101,7 +119,7 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
     if (dryRun) return await ingestAll();
     return await store.exclusive('ingest', async () => {
       await abandonRunningIngests(store.db);
-      const settings = { manifests: inputs.settings, replace: opts.replace ?? false, batch_size: batchSize };
+      const settings = { manifests: inputs.settings, replace: opts.replace ?? false, batch_size: batchSize, ...(lines ? { lines } : {}) };
       sum.run = await startIngestRun(store.db, settings, opts.codeVersion ?? INGEST_VERSION);
       try {
         await storeRejections(store, sum.run, inputs.rejected);

@@ -11,7 +11,7 @@
 import { createReadStream, existsSync, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
-import { CsvError, parse } from 'csv-parse';
+import { type CsvError, parse } from 'csv-parse';
 import type { Quantity, SpecimenShape, UnitDef } from '@fractile/curves';
 import { crossSectionArea, SPECIMEN_SHAPES, unitFor } from '@fractile/curves';
 import { emptyTail, parseCell, parseIsoDate, splitHeader } from './parse-cell.ts';

@@ -19,17 +19,13 @@
  * Numbers: a mantissa of at most 15 significant digits with a decimal power p, |p| ≤ 22, is
  * converted as m·10^p or m/10^-p — both operands are exact doubles, so the one IEEE-754 rounding
  * gives the correctly rounded result (Clinger, "How to read floating point numbers accurately",
- * PLDI 1990, the fast path); other cells go through Number() on the cell's text. The same
- * argument lets a cell in a unit whose factor is 10^k (kN → N) go to COPY as its own digits with
- * the exponent moved by k, wherever that decimal's double equals the stored value (checked per
- * cell), which spares formatting the number.
+ * PLDI 1990, the fast path); other cells go through Number() on the cell's text.
  */
 import { createHash } from 'node:crypto';
 import type { UnitDef } from '@fractile/curves';
 import { unitFor } from '@fractile/curves';
 import type { ChannelName } from './column-map.ts';
 import { CHANNELS, CHANNEL_QUANTITY } from './column-map.ts';
-import { ArrayLiteralBuilder } from './array-literal.ts';
 import { splitHeader } from './parse-cell.ts';
 import { inRange } from './plausible-range.ts';
 
@@ -38,11 +34,6 @@ export interface PlainCurve {
   sizeBytes: number;
   nPoints: number;
   values: Partial<Record<ChannelName, Float64Array>>;
-  /**
-   * when asked for: float8[] literals (array-literal.ts) of channels whose factor is a power of
-   * ten (offset 0), of the cells' own text where the unit is canonical
-   */
-  texts: Partial<Record<ChannelName, string>>;
 }
 
 const POW10 = Array.from({ length: 23 }, (_, i) => Number(`1e${i}`));
@@ -52,16 +43,13 @@ interface Col {
   channel: ChannelName;
   def: UnitDef;
   values: Float64Array;
-  text: ArrayLiteralBuilder | null;
-  /** the factor is 10^scale (scale 1…22, offset 0): cells are rewritten by moving the exponent; else 0 */
-  scale: number;
 }
 
 /**
  * Reads `buf` as a plain curve file; `null` when the file is not plain and valid (the general
  * reader must then read it). `minPoints`: fewer data rows → `null`.
  */
-export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boolean): PlainCurve | null {
+export function readPlainCurve(buf: Uint8Array, minPoints: number): PlainCurve | null {
   let text: string;
   try {
     text = decoder.decode(buf); // a leading byte-order mark is dropped, as by the general reader
@@ -96,8 +84,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
     if (unit === null || cols.some((c) => c.channel === channel)) return null;
     const def = unitFor(CHANNEL_QUANTITY[channel], unit);
     if (!def) return null;
-    const scale = def.offset === 0 ? POW10.indexOf(def.factor) : -1;
-    const col: Col = { channel, def, values: new Float64Array(lines), text: keepText && scale >= 0 ? new ArrayLiteralBuilder() : null, scale: Math.max(0, scale) };
+    const col: Col = { channel, def, values: new Float64Array(lines) };
     cols.push(col);
     byIndex[i] = col;
   }
@@ -136,7 +123,6 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
           neg = c === 0x2d;
           c = text.charCodeAt(++i);
         }
-        const intStart = i;
         let m = 0;
         let sig = 0; // significant digits taken into m
         let digits = 0;
@@ -149,10 +135,7 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
           digits++;
           c = text.charCodeAt(++i);
         }
-        const intEnd = i;
-        let fracStart = i;
         if (c === 0x2e && i < b) {
-          fracStart = i + 1;
           c = text.charCodeAt(++i);
           while (c >= 0x30 && c <= 0x39 && i < b) {
             if (m !== 0 || c !== 0x30) {
@@ -164,7 +147,6 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
             c = text.charCodeAt(++i);
           }
         }
-        const fracEnd = i;
         if (digits === 0) return null;
         let exp = 0;
         if ((c === 0x65 || c === 0x45) && i < b) {
@@ -191,26 +173,10 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
           if (neg) v = -v;
         } else v = Number(text.slice(a, b));
         if (!Number.isFinite(v)) return null;
-        const value = v * col.def.factor + col.def.offset;
+        // an offset of 0 is not added: −0 stays −0, as the cell says
+        const value = col.def.offset === 0 ? v * col.def.factor : v * col.def.factor + col.def.offset;
         if (!inRange(col.def.quantity, value)) return null;
         col.values[n] = value;
-        if (col.text) {
-          if (col.scale === 0) {
-            // a token that underflows (1e-400) would be an error for float8 input: write the value then
-            col.text.push(v === 0 || Math.abs(v) < 1e-300 ? (v === 0 && 1 / v < 0 ? '-0' : String(v)) : text.slice(a, b));
-          } else {
-            // the cell's digits with the exponent moved by the factor's power of ten, where that
-            // decimal's correctly rounded double (which float8 input also reads) is the value
-            // stored; else the value's shortest round-trip form
-            const q = p + col.scale;
-            let w = NaN;
-            if (sig <= 15 && q >= -22 && q <= 22 && value !== 0) {
-              w = q >= 0 ? m * POW10[q] : m / POW10[-q];
-              if (neg) w = -w;
-            }
-            col.text.push(w === value ? (neg ? '-' : '') + text.slice(intStart, intEnd) + text.slice(fracStart, fracEnd) + 'e' + q : String(value));
-          }
-        }
       }
       cell++;
       if (e === end) break;
@@ -227,10 +193,6 @@ export function readPlainCurve(buf: Uint8Array, minPoints: number, keepText: boo
   }
   if (n < minPoints) return null;
   const values: Partial<Record<ChannelName, Float64Array>> = {};
-  const texts: Partial<Record<ChannelName, string>> = {};
-  for (const c of cols) {
-    values[c.channel] = c.values.slice(0, n);
-    if (c.text) texts[c.channel] = c.text.finish();
-  }
-  return { sha256: createHash('sha256').update(buf).digest('hex'), sizeBytes: buf.length, nPoints: n, values, texts };
+  for (const c of cols) values[c.channel] = c.values.slice(0, n);
+  return { sha256: createHash('sha256').update(buf).digest('hex'), sizeBytes: buf.length, nPoints: n, values };
 }

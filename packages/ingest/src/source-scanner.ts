@@ -192,7 +192,10 @@ export class SourceScanner extends Transform {
   override _transform(chunk: Buffer, _enc: BufferEncoding, cb: TransformCallback): void {
     this.hash.update(chunk);
     this.bytes += chunk.length;
-    if (!this.utf8.push(chunk)) return cb(new NotUtf8Error(this.utf8.badLine));
+    if (!this.utf8.push(chunk)) {
+      cb(new NotUtf8Error(this.utf8.badLine));
+      return;
+    }
     let text = this.decoder.decode(chunk, { stream: true });
     if (this.first && text.length > 0) {
       if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
@@ -214,7 +217,10 @@ export class SourceScanner extends Transform {
   }
 
   override _flush(cb: TransformCallback): void {
-    if (!this.utf8.end()) return cb(new NotUtf8Error(this.utf8.badLine));
+    if (!this.utf8.end()) {
+      cb(new NotUtf8Error(this.utf8.badLine));
+      return;
+    }
     const rest = this.decoder.decode();
     if (rest && this.toSkip === 0) {
       const t = this.filterLines(rest);

@@ -1,6 +1,7 @@
 /**
  * Every stage in order — reduce, aggregate (per group, and per group and supplier for the
- * report's breakdown), design curves, drift, the curve-versus-certificate cross-check — then the
+ * report's breakdown), design curves, drift, the distribution models, sample-size planning, the
+ * curve-versus-certificate cross-check — then the
  * exports and the report, each stage incremental, so a second run on unchanged data reuses what
  * is stored. Prints nothing: the caller is told each stage's time through `onStage` and the
  * reduction's progress through `onProgress`.
@@ -13,13 +14,16 @@ import { runAggregate, type AggregateResult } from './aggregate/stage.ts';
 import type { GroupField } from './aggregate/grouping.ts';
 import type { Catalog } from './catalog.ts';
 import { runCrossCheck } from './crosscheck/crosscheck-stage.ts';
-import { runCurves } from './design-stage.ts';
+import { runCurves } from './design/stage.ts';
 import type { StressUnit } from './design/fe-table.ts';
 import { writeExports } from './exports/write-exports.ts';
 import { hashOf } from './hash.ts';
 import { runDrift } from './monitor/stage.ts';
 import { currentReduceHashes } from './properties.ts';
 import { runReduce, type ReduceStageSummary } from './reduce/stage.ts';
+import { DEFAULT_PLAN_ADDED, DEFAULT_PLAN_PROPERTIES } from './planning/plan-groups.ts';
+import { runPlan } from './planning/run-plan.ts';
+import { runDistributions } from './sample/stage.ts';
 import { assembleReport } from './report/assemble-report.ts';
 
 export interface RunAllOptions {
@@ -75,6 +79,10 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
   const breakdown: AggregateResult | null = finer.length ? await timed('stats by supplier', () => runAggregate(store, { by: finer, catalog: o.catalog, codeVersion })) : null;
   const curves = await timed('curves', () => runCurves(store, { by: o.by, catalog: o.catalog, codeVersion, generatedAt: o.generatedAt }));
   const drift = await timed('drift', () => runDrift(store, { by: o.driftBy, catalog: o.catalog, codeVersion }));
+  const distributions = await timed('sample', () => runDistributions(store, { by: o.by, catalog: o.catalog, codeVersion }));
+  const planning = await timed('planning', () =>
+    runPlan(store, { by: o.by, properties: DEFAULT_PLAN_PROPERTIES, added: DEFAULT_PLAN_ADDED, catalog: o.catalog, codeVersion }),
+  );
   const crosscheck = await timed('crosscheck', () => runCrossCheck(store));
   const hashes = await currentReduceHashes(store.db);
   const reduceHash = hashes ? hashOf(hashes) : null;
@@ -87,11 +95,11 @@ export async function runAll(store: Store, o: RunAllOptions): Promise<RunAllResu
     grouping: o.by,
     ...o.provenance,
   };
-  const written = await timed('exports', () => writeExports(store, out, { aggregate, curves, drift, crosscheck, provenance, driftBy: o.driftBy, comments: o.comments, feUnit: o.feUnit }));
+  const written = await timed('exports', () => writeExports(store, out, { aggregate, curves, drift, distributions, planning, crosscheck, provenance, codeVersion, generatedAt: o.generatedAt, driftBy: o.driftBy, comments: o.comments, feUnit: o.feUnit }));
   const report = join(out, 'report.html');
   await timed('report', async () => {
     const data = await assembleReport(store, {
-      by: o.by, aggregate, breakdown, curves, drift, crosscheck, catalog: o.catalog, catalogSource: o.catalogSource, reduceHash, codeVersion, generatedAt: o.generatedAt, lists: written.lists,
+      by: o.by, aggregate, breakdown, curves, drift, crosscheck, catalog: o.catalog, catalogSource: o.catalogSource, reduceHash, codeVersion, generatedAt: o.generatedAt, lists: written.lists, planning: planning.plans,
     });
     writeFileSync(report, await renderReport(data));
   });

@@ -14,7 +14,7 @@ import { hashOf } from './hash.ts';
 export const ALGORITHM_VERSION = '5';
 
 /** Algorithm version of each stage, recorded in its settings; bump one when its results change. */
-export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '3', design: '4', monitor: '5' } as const;
+export const STAGE_VERSIONS = { reduce: ALGORITHM_VERSION, aggregate: '4', design: '4', monitor: '5', sample: '1' } as const;
 
 /**
  * Runs a stage alone on the database: two runs of the same stage (two processes on a server, two
@@ -41,10 +41,11 @@ export async function saveSettings(db: Kysely<Database>, stage: StageName, body:
   return hash;
 }
 
-export async function startRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null, codeVersion: string): Promise<number> {
+/** Records a run as `running`; `queueJob` names the queued job that started it (null in-process). */
+export async function startRun(db: Kysely<Database>, stage: StageName, settingsHash: string, inputHash: string | null, codeVersion: string, queueJob: string | null = null): Promise<number> {
   const row = await db
     .insertInto('stage_runs')
-    .values({ stage, settings_hash: settingsHash, input_hash: inputHash, code_version: codeVersion, counts: JSON.stringify({}) })
+    .values({ stage, settings_hash: settingsHash, input_hash: inputHash, code_version: codeVersion, counts: JSON.stringify({}), queue_job: queueJob })
     .returning('id')
     .executeTakeFirstOrThrow();
   return Number(row.id);
@@ -77,4 +78,40 @@ export async function latestRun(db: Kysely<Database>, stage: StageName): Promise
     .limit(1)
     .executeTakeFirst();
   return row ? { id: Number(row.id), settings_hash: row.settings_hash, code_version: row.code_version, finished_at: row.finished_at, counts: row.counts } : null;
+}
+
+/** What one stage run needs: its settings and inputs, how to read a finished run back, how to compute one. */
+export interface StageWork<R> {
+  stage: StageName;
+  settings: object;
+  /** Hash of the inputs (null where the settings alone key the run). */
+  inputHash: string | null;
+  codeVersion: string;
+  /** The results of a finished run with these settings and inputs; null when they cannot be read back. */
+  reuse(runId: number): Promise<R | null>;
+  /** Computes and stores the results under `runId`; the counts go to the run row. */
+  compute(runId: number, settingsHash: string): Promise<{ result: R; counts: Record<string, number> }>;
+}
+
+/**
+ * The life of a stage run, one place for every stage: store the settings, reuse a finished run of
+ * the same settings and inputs, else start a run row, compute, and mark it `done` with its counts
+ * — or `failed` when the computation throws (the error is rethrown).
+ */
+export async function runStage<R>(db: Kysely<Database>, work: StageWork<R>): Promise<{ run: number; reused: boolean; settingsHash: string; result: R }> {
+  const settingsHash = await saveSettings(db, work.stage, work.settings);
+  const done = await findDoneRun(db, work.stage, settingsHash, work.inputHash);
+  if (done) {
+    const result = await work.reuse(done.id);
+    if (result !== null) return { run: done.id, reused: true, settingsHash, result };
+  }
+  const run = await startRun(db, work.stage, settingsHash, work.inputHash, work.codeVersion);
+  try {
+    const { result, counts } = await work.compute(run, settingsHash);
+    await finishRun(db, run, counts);
+    return { run, reused: false, settingsHash, result };
+  } catch (e) {
+    await finishRun(db, run, {}, 'failed');
+    throw e;
+  }
 }

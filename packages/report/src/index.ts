@@ -12,3 +12,4 @@ export { propertyLabel, propertyAxisTitle, type PropertyLabel } from './property
 export { groupLabel, groupId } from './group-label.ts';
 export { fitDensity } from './fit-density.ts';
 export { histogramBins, type Histogram, type HistogramBin } from './histogram-bins.ts';
+export { renderPlanningChart, planningTemplate, planningInput } from './planning-chart.ts';

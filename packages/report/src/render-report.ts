@@ -11,6 +11,7 @@ import { groupLabel } from './group-label.ts';
 import { groupAnchor, groupSection } from './group-section.ts';
 import { escapeHtml } from './html-escape.ts';
 import { htmlTable } from './html-table.ts';
+import { planningSection } from './planning-section.ts';
 import { qualitySection } from './quality-section.ts';
 import { REPORT_CSS } from './report-style.ts';
 import type { ReportData, ReportMeta } from './types.ts';
@@ -80,7 +81,7 @@ function summarySection(meta: ReportMeta, data: ReportData): string {
 <div><h3>Grade catalog</h3>${grades}</div>
 </div>
 <nav class="toc"><h3>Groups</h3><ol>${toc}</ol>
-<p class="meta"><a href="#drift">Drift and control charts</a> · <a href="#quality">Data quality</a></p></nav>
+<p class="meta"><a href="#drift">Drift and control charts</a> · <a href="#planning">Sample-size planning</a> · <a href="#quality">Data quality</a></p></nav>
 </section>`;
 }
 
@@ -91,6 +92,7 @@ export async function renderReport(data: ReportData): Promise<string> {
   const groups: string[] = [];
   for (let i = 0; i < data.groups.length; i++) groups.push(await groupSection(data.groups[i], i));
   const drift = await renderDriftSection(data.drift, maxRows);
+  const planning = await planningSection(data.planning);
   return `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -110,6 +112,7 @@ ${cautionBox(caution, 'top')}
 ${summarySection(meta, data)}
 ${groups.join('\n')}
 ${drift}
+${planning}
 ${qualitySection(data.quality, meta.counts, maxRows)}
 ${cautionBox(caution, 'bottom')}
 </main>

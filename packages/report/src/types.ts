@@ -411,6 +411,49 @@ export interface ReportQuality {
 }
 
 // ---------------------------------------------------------------------------------------------
+// sample-size planning (the `plans` of `fractile plan --format json`)
+
+export interface PlanningRow {
+  /** tests added to those at hand */
+  added: number;
+  /** tests then */
+  n: number;
+  /** factors at n: k (normal, lognormal limits), t (Weibull), r (order statistic rank) */
+  factors: { readonly k?: number; readonly t?: number; readonly r?: number };
+  /** mean of the characteristic value after adding the tests */
+  expected: number | null;
+  p05: number | null;
+  p95: number | null;
+  /** expected − the value now */
+  gain: number | null;
+  /** spread (SD) of the value from n tests drawn afresh */
+  sd_fresh: number | null;
+}
+
+export interface PlanningPlan {
+  method: string;
+  level: { coverage: number; confidence: number };
+  /** the model the added tests are drawn from */
+  model: { model: string; params: Readonly<Record<string, number>> };
+  n_now: number;
+  value_now: number;
+  population_fractile: number;
+  value_large_n: number | null;
+  replicates: number;
+  seed: number;
+  rows: readonly PlanningRow[];
+}
+
+/** One group and property: its plan, or why there is none. */
+export interface PropertyPlanning {
+  group: GroupKey;
+  property: string;
+  headline_basis: string | null;
+  plan: PlanningPlan | null;
+  note: string | null;
+}
+
+// ---------------------------------------------------------------------------------------------
 
 export interface ReportOptions {
   /** Rows shown per data-quality or drift table before truncation (default 200). */
@@ -436,5 +479,7 @@ export interface ReportData {
   groups: readonly ReportGroup[];
   drift: ReportDrift | null;
   quality: ReportQuality;
+  /** sample-size planning per group and property (absent: not computed) */
+  planning?: readonly PropertyPlanning[];
   options?: ReportOptions;
 }

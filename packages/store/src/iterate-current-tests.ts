@@ -8,6 +8,7 @@
  * `areaMm2` (S0) and `gaugeLengthMm` (L0) and the reduce stage converts it.
  */
 import type { Kysely } from 'kysely';
+import { channelFromBytes } from './channel-bytes.ts';
 import type { Database, SpecimenShapeCode, YieldDefinitionCode } from './schema.ts';
 
 export interface StoredCurve {
@@ -62,7 +63,7 @@ export interface IterateOptions {
   rowIds?: readonly number[];
 }
 
-const f64 = (a: number[] | null): Float64Array | null => (a === null ? null : Float64Array.from(a));
+const f64 = (a: Uint8Array | null): Float64Array | null => (a === null ? null : channelFromBytes(a));
 
 export async function* iterateCurrentTests(db: Kysely<Database>, opts: IterateOptions = {}): AsyncGenerator<CurrentTest[]> {
   const batchSize = Math.max(1, Math.floor(opts.batchSize ?? 500));

@@ -24,7 +24,8 @@ import { Kysely, PostgresDialect, sql } from 'kysely';
 import type { PostgresPool, PostgresPoolClient } from 'kysely';
 import { PGliteDialect } from 'kysely-pglite-dialect';
 import pg from 'pg';
-import { from as copyFrom } from 'pg-copy-streams';
+import { from as copyFrom, to as copyTo } from 'pg-copy-streams';
+import { BinaryCopyEncoder, decodeBinaryCopy, type BinaryType, type BinaryValue, type DecodedValue } from './copy-binary.ts';
 import { copyLine } from './copy-text.ts';
 import { prepareFolder } from './embedded-folder.ts';
 import { inProcessExclusive, serverExclusive, type Exclusive } from './exclusive.ts';
@@ -41,6 +42,13 @@ export interface Store {
   target: string;
   /** Bulk-writes rows (values in column order) by COPY; returns the number of rows written. */
   copyRows(table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number>;
+  /** The same in COPY's binary format, each column of the type given (copy-binary.ts); returns the number of rows written. */
+  copyBinaryRows(table: string, columns: readonly string[], types: readonly BinaryType[], rows: Iterable<readonly BinaryValue[]> | AsyncIterable<readonly BinaryValue[]>): Promise<number>;
+  /**
+   * Rows of a query read by `COPY (query) TO … (FORMAT binary)`, each column decoded as the type
+   * given (bytea as bytes). The query takes no parameters: build it from trusted literals only.
+   */
+  copyOutBinary(query: string, types: readonly BinaryType[]): Promise<DecodedValue[][]>;
   /** Runs `fn` in one transaction (committed when it resolves, rolled back when it throws). */
   transaction<T>(fn: (trx: Kysely<Database>) => Promise<T>): Promise<T>;
   /** Runs `fn` while no other process (or call) holds `name` on this database, waiting for it (exclusive.ts). */
@@ -64,10 +72,12 @@ export function isServerTarget(target: string): boolean {
 }
 
 const IDENT = /^[a-z_][a-z0-9_]*$/;
-function copySql(table: string, columns: string[], source: string): string {
+function copySql(table: string, columns: readonly string[], source: string, binary = false): string {
   for (const n of [table, ...columns]) if (!IDENT.test(n)) throw new Error(`copyRows: not a plain identifier: ${n}`);
-  return `copy ${table} (${columns.join(', ')}) from ${source}`;
+  return `copy ${table} (${columns.join(', ')}) from ${source}${binary ? ' with (format binary)' : ''}`;
 }
+
+const copyOutSql = (query: string, target: string) => `copy (${query}) to ${target} with (format binary)`;
 
 const PGLITE_CHUNK_BYTES = 2 * 1024 * 1024;
 
@@ -83,8 +93,8 @@ const PGLITE_CHUNK_BYTES = 2 * 1024 * 1024;
  */
 const PGLITE_START_PARAMS = [...PGLITE_DURABLE_PARAMS, '-c', 'shared_buffers=16MB', '-c', 'wal_buffers=1MB'];
 
-async function* eachRow(rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): AsyncGenerator<unknown[]> {
-  yield* rows as AsyncIterable<unknown[]>;
+async function* eachRow<R>(rows: Iterable<R> | AsyncIterable<R>): AsyncGenerator<R> {
+  yield* rows as AsyncIterable<R>;
 }
 
 function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
@@ -126,14 +136,37 @@ function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
       return count;
     }
 
+    /** Binary COPY in chunks of about 2 MB, each a whole binary COPY input of its own. */
+    async function copyBinaryChunks(table: string, columns: readonly string[], types: readonly BinaryType[], rows: Iterable<readonly BinaryValue[]> | AsyncIterable<readonly BinaryValue[]>): Promise<number> {
+      const statement = copySql(table, columns, `'/dev/blob'`, true);
+      const enc = new BinaryCopyEncoder(types, true, PGLITE_CHUNK_BYTES);
+      let count = 0;
+      const flush = async () => {
+        const parts = enc.take();
+        if (parts.length) await pglite.query(statement, [], { blob: new Blob(parts as BlobPart[]) });
+      };
+      for await (const row of eachRow(rows)) {
+        enc.row(row);
+        count++;
+        if (enc.ready()) await flush();
+      }
+      await flush();
+      return count;
+    }
+
+    /** In a transaction of its own unless one is going on (the dialect's single connection is held, so nothing interleaves). */
+    const inTransaction = <T>(fn: () => Promise<T>): Promise<T> => (inTrx.getStore() ? fn() : db.transaction().execute(fn));
+
     const store: Store = {
       db,
       engine: 'pglite',
       target,
-      async copyRows(table, columns, rows) {
-        if (inTrx.getStore()) return copyChunks(table, columns, rows);
-        // own transaction, holding the dialect's single connection so no other query interleaves
-        return db.transaction().execute(() => copyChunks(table, columns, rows));
+      copyRows: (table, columns, rows) => inTransaction(() => copyChunks(table, columns, rows)),
+      copyBinaryRows: (table, columns, types, rows) => inTransaction(() => copyBinaryChunks(table, columns, types, rows)),
+      async copyOutBinary(query, types) {
+        const r = await pglite.query(copyOutSql(query, `'/dev/blob'`));
+        if (!r.blob) throw new Error('copyOutBinary: the engine returned no data');
+        return decodeBinaryCopy(new Uint8Array(await r.blob.arrayBuffer()), types);
       },
       transaction(fn) {
         return db.transaction().execute((trx) => inTrx.run(true, () => fn(trx)));
@@ -169,8 +202,12 @@ function singleClientPool(client: pg.PoolClient): PostgresPool {
   return { connect: async () => wrapped, end: async () => {} };
 }
 
-async function copyOnClient(client: pg.PoolClient, table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number> {
-  const stream = client.query(copyFrom(copySql(table, columns, 'stdin')));
+/**
+ * COPY … FROM STDIN on a client: `write(row)` returns the bytes to send for a row (or null to
+ * hold them), `end()` the last ones; the stream's back-pressure is honoured.
+ */
+async function copyOnClient<R>(client: pg.PoolClient, statement: string, rows: Iterable<R> | AsyncIterable<R>, write: (row: R) => Buffer | string | null, end: () => Buffer | string | null): Promise<number> {
+  const stream = client.query(copyFrom(statement));
   let count = 0;
   let failed: Error | null = null;
   const done = new Promise<void>((resolve, reject) => {
@@ -182,19 +219,15 @@ async function copyOnClient(client: pg.PoolClient, table: string, columns: strin
   });
   done.catch(() => {});
   try {
-    let buf = '';
     for await (const row of eachRow(rows)) {
       if (failed) break;
-      buf += copyLine(row);
+      const out = write(row);
       count++;
-      if (buf.length >= 256 * 1024) {
-        const ok = stream.write(buf);
-        buf = '';
-        if (!ok) await new Promise<void>((r) => { const on = () => { stream.off('error', on); r(); }; stream.once('drain', on); stream.once('error', on); });
-      }
+      if (out !== null && !stream.write(out)) await new Promise<void>((r) => { const on = () => { stream.off('error', on); r(); }; stream.once('drain', on); stream.once('error', on); });
     }
     if (!failed) {
-      if (buf) stream.write(buf);
+      const last = end();
+      if (last?.length) stream.write(last);
       stream.end();
     }
   } catch (e) {
@@ -207,6 +240,27 @@ async function copyOnClient(client: pg.PoolClient, table: string, columns: strin
   return count;
 }
 
+/** Text COPY rows, sent in pieces of about 256 kB. */
+function copyTextOnClient(client: pg.PoolClient, table: string, columns: string[], rows: Iterable<unknown[]> | AsyncIterable<unknown[]>): Promise<number> {
+  let buf = '';
+  const take = () => { const out = buf; buf = ''; return out; };
+  return copyOnClient(client, copySql(table, columns, 'stdin'), rows, (row) => ((buf += copyLine(row)).length >= 256 * 1024 ? take() : null), take);
+}
+
+/** Binary COPY rows, one stream (header, tuples, trailer) sent in pieces of about 256 kB. */
+function copyBinaryOnClient(client: pg.PoolClient, table: string, columns: readonly string[], types: readonly BinaryType[], rows: Iterable<readonly BinaryValue[]> | AsyncIterable<readonly BinaryValue[]>): Promise<number> {
+  const enc = new BinaryCopyEncoder(types, false, 256 * 1024);
+  return copyOnClient(client, copySql(table, columns, 'stdin', true), rows, (row) => (enc.row(row), enc.ready() ? Buffer.concat(enc.take()) : null), () => Buffer.concat(enc.finish()));
+}
+
+/** `COPY (query) TO STDOUT (FORMAT binary)` on a client, decoded. */
+async function copyOutOnClient(client: pg.PoolClient, query: string, types: readonly BinaryType[]): Promise<DecodedValue[][]> {
+  const stream = client.query(copyTo(copyOutSql(query, 'stdout')));
+  const chunks: Buffer[] = [];
+  for await (const c of stream) chunks.push(c as Buffer);
+  return decodeBinaryCopy(Buffer.concat(chunks), types);
+}
+
 async function openServer(target: string, opts: OpenStoreOptions): Promise<Store> {
   const pool = new pg.Pool({ connectionString: target, types: pgTypes, max: 4 });
   // An idle pooled connection that the server ends (restart, dropped database) must not bring
@@ -215,21 +269,25 @@ async function openServer(target: string, opts: OpenStoreOptions): Promise<Store
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
   const current = new AsyncLocalStorage<pg.PoolClient>();
   const locks = serverExclusive(target);
+  /** Runs on the transaction's client when inside `transaction`, else on a pooled one. */
+  async function onClient<T>(fn: (client: pg.PoolClient) => Promise<T>): Promise<T> {
+    const client = current.getStore();
+    if (client) return fn(client);
+    const own = await pool.connect();
+    try {
+      return await fn(own);
+    } finally {
+      own.release();
+    }
+  }
 
   const store: Store = {
     db,
     engine: 'postgres',
     target,
-    async copyRows(table, columns, rows) {
-      const client = current.getStore();
-      if (client) return copyOnClient(client, table, columns, rows);
-      const own = await pool.connect();
-      try {
-        return await copyOnClient(own, table, columns, rows);
-      } finally {
-        own.release();
-      }
-    },
+    copyRows: (table, columns, rows) => onClient((c) => copyTextOnClient(c, table, columns, rows)),
+    copyBinaryRows: (table, columns, types, rows) => onClient((c) => copyBinaryOnClient(c, table, columns, types, rows)),
+    copyOutBinary: (query, types) => onClient((c) => copyOutOnClient(c, query, types)),
     async transaction(fn) {
       const client = await pool.connect();
       const trx = new Kysely<Database>({ dialect: new PostgresDialect({ pool: singleClientPool(client) }) });

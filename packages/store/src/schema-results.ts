@@ -27,6 +27,8 @@ export interface StageRunsTable {
   finished_at: Timestamp | null;
   status: Generated<'running' | 'done' | 'failed' | 'abandoned'>;
   counts: Json<Record<string, number>>;
+  /** the queued job that started the run (migration 0180), null for a run in the calling process */
+  queue_job: Generated<string | null>;
 }
 
 export interface TestResultsTable {

@@ -13,7 +13,8 @@ import type { ResultTables } from './schema-results.ts';
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
 /** jsonb: written as a JSON string or value, read back as a parsed value. */
 type Json = ColumnType<unknown, string, string>;
-type Float8Array = ColumnType<number[] | null, number[] | string | null, number[] | string | null>;
+/** A curve channel: little-endian float8 bytes (channel-bytes.ts); read as a Uint8Array (a Buffer on a server). */
+type ChannelBytes = ColumnType<Uint8Array | null, Uint8Array | null, Uint8Array | null>;
 
 export type SpecimenShapeCode = 'round' | 'flat' | 'area';
 export type YieldDefinitionCode = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
@@ -90,16 +91,20 @@ export interface TestsTable {
   created_at: Generated<Date>;
 }
 
-/** One row per test version that has a curve; channels absent from the file are NULL. */
+/**
+ * One row per test version that has a curve; channels absent from the file are NULL. Each channel
+ * is bytea, 8 little-endian bytes a point (migration 0040; `curve_channel(bytea)` and the view
+ * `curve_arrays` give float8[] in SQL).
+ */
 export interface CurvesTable {
   test_row_id: number;
   n_points: number;
-  time_s: Float8Array;
-  force_n: Float8Array;
-  extension_mm: Float8Array;
-  crosshead_mm: Float8Array;
-  stress_mpa: Float8Array;
-  strain: Float8Array;
+  time_s: ChannelBytes;
+  force_n: ChannelBytes;
+  extension_mm: ChannelBytes;
+  crosshead_mm: ChannelBytes;
+  stress_mpa: ChannelBytes;
+  strain: ChannelBytes;
   source_sha256: string;
   /** curve file path relative to its manifest */
   source_path: string;
@@ -152,6 +157,27 @@ export interface AlertActionsTable {
   acted_at: Generated<Date>;
 }
 
+/** Work handed to the job queue, one row per request (migration 0060, queue package). */
+export interface QueueRequestsTable {
+  id: Generated<number>;
+  kind: 'ingest' | 'reduce';
+  created_at: Generated<Date>;
+  parts: number;
+  settings: Json;
+  then_stages: Generated<boolean>;
+  followup_at: Date | null;
+  cancelled_at: Date | null;
+}
+
+/** A part of a queued request whose work is committed (part -1: the follow-up stages). */
+export interface QueuePartsTable {
+  request_id: number;
+  part: number;
+  kind: 'ingest' | 'reduce' | 'stages';
+  finished_at: Generated<Date>;
+  counts: Json;
+}
+
 export interface RawTables {
   source_files: SourceFilesTable;
   ingest_runs: IngestRunsTable;
@@ -164,6 +190,8 @@ export interface RawTables {
   rejections: RejectionsTable;
   exclusions: ExclusionsTable;
   alert_actions: AlertActionsTable;
+  queue_requests: QueueRequestsTable;
+  queue_parts: QueuePartsTable;
 }
 
 export interface Database extends RawTables, ResultTables {}

@@ -5,9 +5,10 @@
  *
  * The caller describes the batch by its records' identities and locations and an `entries`
  * function that, given the stored current version of each identity, yields what to write for
- * each record: a test (with its curve as float8[] literals, streamed straight into COPY), a
- * duplicate, or a rejection. Curves go first (their foreign key to `tests` is deferred); test
- * rows, which are small, are kept until the curves are in.
+ * each record: a test (with its curve's channels, streamed straight into binary COPY as
+ * little-endian float8 bytes, channel-bytes.ts), a duplicate, or a rejection. Curves go first
+ * (their foreign key to `tests` is deferred); test rows, which are small, are kept until the
+ * curves are in.
  *
  * Isolation: when the database refuses a batch for its data (SQLSTATE class 22, data exception;
  * 23, integrity constraint; 54, program limit, such as an index entry too large), the batch is
@@ -22,12 +23,16 @@
  * readers reject such cells in data).
  */
 import { sql, type Kysely } from 'kysely';
+import { channelBytes } from './channel-bytes.ts';
+import type { BinaryType, BinaryValue } from './copy-binary.ts';
 import type { Store } from './open-store.ts';
 import type { Insertable } from 'kysely';
 import type { Database, SummaryRecordsTable, TestsTable } from './schema.ts';
 
 export const TEST_COLUMNS = ['id', 'lab', 'test_id', 'version', 'is_current', 'grade_id', 'supplier_id', 'heat_id', 'tested_on', 'shape', 'diameter_mm', 'thickness_mm', 'width_mm', 'area_mm2', 'gauge_length_mm', 'orientation', 'temperature_c', 'content_sha256', 'manifest_sha256', 'manifest_line', 'run_id'];
 export const CURVE_COLUMNS = ['test_row_id', 'n_points', 'time_s', 'force_n', 'extension_mm', 'crosshead_mm', 'stress_mpa', 'strain', 'source_sha256', 'source_path'];
+/** the binary COPY types of CURVE_COLUMNS */
+export const CURVE_TYPES: readonly BinaryType[] = ['int8', 'int4', 'bytea', 'bytea', 'bytea', 'bytea', 'bytea', 'bytea', 'text', 'text'];
 export const SUMMARY_COLUMNS = ['test_row_id', 'yield_mpa', 'yield_definition', 'tensile_mpa', 'uniform_elongation_pct', 'elongation_pct'];
 export const REJECTION_COLUMNS = ['run_id', 'file', 'line', 'col', 'code', 'message'];
 
@@ -62,15 +67,15 @@ export interface BatchRecord {
 /** The test row's own values (identity, references and provenance are the writer's). */
 export type TestValues = Pick<Insertable<TestsTable>, 'tested_on' | 'shape' | 'diameter_mm' | 'thickness_mm' | 'width_mm' | 'area_mm2' | 'gauge_length_mm' | 'orientation' | 'temperature_c'>;
 
-/** A curve as float8[] array literals (`{1,2.5,…}`) in canonical units; null where absent. */
-export interface CurveLiterals {
+/** A curve's channels in canonical units (s, N, mm, MPa, mm/mm); null where absent. */
+export interface CurveValues {
   n_points: number;
-  time_s: string | null;
-  force_n: string | null;
-  extension_mm: string | null;
-  crosshead_mm: string | null;
-  stress_mpa: string | null;
-  strain: string | null;
+  time_s: Float64Array | null;
+  force_n: Float64Array | null;
+  extension_mm: Float64Array | null;
+  crosshead_mm: Float64Array | null;
+  stress_mpa: Float64Array | null;
+  strain: Float64Array | null;
   source_sha256: string;
   /** curve path relative to its manifest */
   source_path: string;
@@ -82,7 +87,7 @@ export interface CurveLiterals {
 export type SummaryRowValues = Omit<SummaryRecordsTable, 'test_row_id'>;
 
 export type BatchEntry =
-  | { kind: 'test'; index: number; values: TestValues; content_sha256: string; version: number; supersedes: number | null; curve: CurveLiterals | null; summary: SummaryRowValues | null }
+  | { kind: 'test'; index: number; values: TestValues; content_sha256: string; version: number; supersedes: number | null; curve: CurveValues | null; summary: SummaryRowValues | null }
   | { kind: 'duplicate'; index: number }
   | { kind: 'rejection'; rejection: RejectionValues };
 
@@ -95,10 +100,17 @@ export interface TestBatch {
   records: BatchRecord[];
   /** what to write for the records at `indexes` (in order), judged against their stored versions */
   entries(indexes: number[], stored: Map<string, StoredVersion>): AsyncIterable<BatchEntry>;
+  /**
+   * called in the attempt's transaction once its rows are written, with the test row id of each
+   * test written (by entry index): to write rows that belong with them (their per-test results)
+   * in the same transaction; a refusal splits the batch like any other
+   */
+  written?(tests: { index: number; rowId: number }[]): Promise<void>;
 }
 
 export const identityKey = (lab: string, testId: string) => `${lab}\u0000${testId}`;
 
+// biome-ignore lint/suspicious/noControlCharactersInRegex: NUL is the character PostgreSQL refuses in text
 const clean = (s: string) => s.replace(/\u0000/g, '\\0');
 
 /** Rejection rows as COPY values, NUL shown as `\0`. */
@@ -161,7 +173,8 @@ async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promi
     const outcomes: BatchOutcome[] = [];
     const tests: Extract<BatchEntry, { kind: 'test' }>[] = [];
     const files = new Map<string, { sha256: string; name: string; size_bytes: number }>();
-    async function* curveRows(): AsyncGenerator<unknown[]> {
+    const bytes = (a: Float64Array | null) => (a === null ? null : channelBytes(a));
+    async function* curveRows(): AsyncGenerator<BinaryValue[]> {
       for await (const e of batch.entries(indexes, stored)) {
         if (e.kind !== 'test') {
           outcomes.push(e);
@@ -172,10 +185,10 @@ async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promi
         tests.push({ ...e, curve: null });
         if (!c) continue;
         files.set(c.source_sha256, { sha256: c.source_sha256, name: c.source_name, size_bytes: c.size_bytes });
-        yield [rowId.get(e.index), c.n_points, c.time_s, c.force_n, c.extension_mm, c.crosshead_mm, c.stress_mpa, c.strain, c.source_sha256, c.source_path];
+        yield [rowId.get(e.index)!, c.n_points, bytes(c.time_s), bytes(c.force_n), bytes(c.extension_mm), bytes(c.crosshead_mm), bytes(c.stress_mpa), bytes(c.strain), c.source_sha256, c.source_path];
       }
     }
-    await store.copyRows('curves', CURVE_COLUMNS, curveRows());
+    await store.copyBinaryRows('curves', CURVE_COLUMNS, CURVE_TYPES, curveRows());
     const superseded = tests.flatMap((t) => (t.supersedes === null ? [] : [t.supersedes]));
     if (superseded.length) await db.updateTable('tests').set({ is_current: false, superseded_at: new Date() }).where('id', 'in', superseded).execute();
     if (tests.length) {
@@ -194,6 +207,7 @@ async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promi
     if (files.size) await db.insertInto('source_files').values([...files.values()]).onConflict((oc) => oc.column('sha256').doNothing()).execute();
     const rejections = outcomes.flatMap((o) => (o.kind === 'rejection' ? [o.rejection] : []));
     if (rejections.length) await store.copyRows('rejections', REJECTION_COLUMNS, rejectionRows(batch.run, rejections));
+    if (batch.written && tests.length) await batch.written(tests.map((t) => ({ index: t.index, rowId: rowId.get(t.index)! })));
     return outcomes;
   });
 }

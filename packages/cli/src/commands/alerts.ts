@@ -12,7 +12,7 @@ const STATES = ['open', 'acknowledged', 'closed', 'all'] as const;
 
 function actor(o: { by?: string }): string {
   const who = o.by ?? process.env.USER ?? userInfo().username;
-  if (!who || !who.trim()) throw new CliError('name who acts with --by NAME');
+  if (!who?.trim()) throw new CliError('name who acts with --by NAME');
   return who.trim();
 }
 
@@ -24,7 +24,7 @@ function act(parent: Command, name: string, action: 'acknowledge' | 'close' | 'r
     .option('--by <name>', 'who acts (default: the login name)')
     .action(async (ids: string[], o: { note?: string; by?: string }, cmd: Command) => {
       const g = globals(cmd);
-      if (noteRequired && !(o.note && o.note.trim())) throw new CliError(`fractile alerts ${name} needs --note TEXT: say what was found or done`);
+      if (noteRequired && !(o.note?.trim())) throw new CliError(`fractile alerts ${name} needs --note TEXT: say what was found or done`);
       const bad = ids.filter((id) => !/^[0-9a-f]{12}$/.test(id));
       if (bad.length) throw new CliError(`alert ids are 12 hex digits as \`fractile alerts\` prints them, got "${bad.join('", "')}"`);
       const { recordAlertAction, AlertStateError } = await import('@fractile/pipeline');

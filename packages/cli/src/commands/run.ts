@@ -3,7 +3,6 @@ import type { Command } from 'commander';
 import { globals, log, type CommandModule } from '../context.ts';
 import { catalogPath, groupBy, resolveCatalog, withStore } from '../common-options.ts';
 import { print } from '../output.ts';
-import { progressBar } from '../progress.ts';
 import { addExportOptions, readExportOptions, runAllOutput, runCallbacks, workersOption } from '../run-options.ts';
 import { CODE_VERSION } from '../version.ts';
 

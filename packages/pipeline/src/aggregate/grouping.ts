@@ -45,23 +45,24 @@ export interface Group<K extends string> {
 
 /**
  * Splits rows into groups. Returns, per group, its key and for each requested column the aligned
- * values (NaN where a row has no value), in input order.
+ * values (NaN where a row has no value), in input order. The columns are read from the group's
+ * row indices, not aggregated by arquero: its array_agg skips missing values, which would shorten
+ * a column with gaps and pair its values with the wrong tests.
  */
 export function groupRows<K extends keyof PropertyRow & string>(rows: PropertyRow[], by: GroupField[], columns: readonly K[]): Group<K>[] {
   const data: Record<string, unknown[]> = { __i: rows.map((_, i) => i) };
   for (const f of by) data[f] = rows.map((r) => fieldValue(r, f));
-  for (const c of columns) data[c] = rows.map((r) => (typeof r[c] === 'number' ? (r[c] as number) : NaN));
   let t = aq.table(data);
   const roll: Record<string, unknown> = { __i: aq.op.array_agg('__i') };
-  for (const c of columns) roll[c] = aq.op.array_agg(c);
   t = by.length ? t.groupby(...by).rollup(roll as never) : t.rollup(roll as never);
   const out: Group<K>[] = [];
   for (const o of t.objects() as Record<string, unknown>[]) {
     const key: Record<string, string> = {};
     for (const f of by) key[f] = String(o[f]);
+    const idx = o.__i as number[];
     const cols = {} as Record<K, number[]>;
-    for (const c of columns) cols[c] = o[c] as number[];
-    out.push({ key, rows: o.__i as number[], columns: cols });
+    for (const c of columns) cols[c] = idx.map((i) => (typeof rows[i][c] === 'number' ? (rows[i][c] as number) : NaN));
+    out.push({ key, rows: idx, columns: cols });
   }
   out.sort((a, b) => JSON.stringify(a.key).localeCompare(JSON.stringify(b.key)));
   return out;

@@ -12,7 +12,7 @@ import { gradeSettings, type Catalog } from '../catalog.ts';
 import { populationHash } from '../population-hash.ts';
 import { leftOutCounts, type LeftOut, type Population, type PopulationOptions } from '../population.ts';
 import { loadPopulation, NUMERIC_PROPERTIES, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, runStage, STAGE_VERSIONS } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
 
@@ -148,23 +148,22 @@ async function aggregateAlone(store: Store, opts: AggregateOptions): Promise<Agg
     spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.spec])) : null,
     property_settings: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, e.properties ?? {}])) : null,
   };
-  const settingsHash = await saveSettings(db, 'aggregate', settings);
-  const inputHash = populationHash(pop);
-  const done = await findDoneRun(db, 'aggregate', settingsHash, inputHash);
-  if (done) {
-    const stored = await loadAggregate(store, done.id);
-    return { run: done.id, reused: true, ...stored, exclusions: pop.exclusions, timings: { load_ms: tLoad, reused_ms: performance.now() - t0 - tLoad } };
-  }
-  const run = await startRun(db, 'aggregate', settingsHash, inputHash, opts.codeVersion);
-  const { stats, correlations, timings } = aggregateRows(pop, opts);
-  const tw = performance.now();
-  const values = [
-    ...stats.map((s) => [run, 'aggregate', JSON.stringify(s.group), s.property, JSON.stringify(s)]),
-    ...correlations.map((c) => [run, 'aggregate', JSON.stringify(c.group), '', JSON.stringify(c)]),
-  ];
-  await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], values);
-  await finishRun(db, run, { tests: rows.length, groups: correlations.length, rows: stats.length, excluded_tests: pop.excluded.length, values_left_out: stats.reduce((a, s) => a + s.left_out.n, 0) });
-  return { run, reused: false, stats, correlations, exclusions: pop.exclusions, timings: { load_ms: tLoad, ...timings, store_ms: performance.now() - tw } };
+  const r = await runStage<{ stats: StatsRow[]; correlations: CorrelationResult[]; timings?: Record<string, number> }>(db, {
+    stage: 'aggregate', settings, inputHash: populationHash(pop), codeVersion: opts.codeVersion,
+    reuse: (id) => loadAggregate(store, id),
+    compute: async (run) => {
+      const { stats, correlations, timings } = aggregateRows(pop, opts);
+      const tw = performance.now();
+      await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [
+        ...stats.map((s) => [run, 'aggregate', JSON.stringify(s.group), s.property, JSON.stringify(s)]),
+        ...correlations.map((c) => [run, 'aggregate', JSON.stringify(c.group), '', JSON.stringify(c)]),
+      ]);
+      const counts = { tests: rows.length, groups: correlations.length, rows: stats.length, excluded_tests: pop.excluded.length, values_left_out: stats.reduce((a, s) => a + s.left_out.n, 0) };
+      return { result: { stats, correlations, timings: { ...timings, store_ms: performance.now() - tw } }, counts };
+    },
+  });
+  const timings: Record<string, number> = r.reused ? { load_ms: tLoad, reused_ms: performance.now() - t0 - tLoad } : { load_ms: tLoad, ...r.result.timings };
+  return { run: r.run, reused: r.reused, stats: r.result.stats, correlations: r.result.correlations, exclusions: pop.exclusions, timings };
 }
 
 /** One order for computed and stored rows: by group, then property in NUMERIC_PROPERTIES order. */

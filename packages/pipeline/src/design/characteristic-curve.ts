@@ -100,7 +100,7 @@ function lowerBand(kind: BandKind, tests: readonly UsableTest[], pointwise: read
   if (kind === 'pointwise') return own;
   const simulations = opts.bandSimulations ?? 2000;
   const sim = simultaneousLowerBand(tests.map((t) => t.stress.slice(0, last + 1)), last + 1, { coverage: opts.coverage, confidence: opts.confidence, model: opts.model, simulations, seed: BAND_SEED });
-  if (!sim || !sim.bound.every(Number.isFinite)) return own;
+  if (!sim?.bound.every(Number.isFinite)) return own;
   return {
     kind,
     band: sim.bound,

@@ -2,6 +2,7 @@
  * The exports written beside the report (README "Exports"), every one in the shared shape
  * (export-format.ts: JSON envelope; CSV with the comment block, or plain with a sidecar):
  * properties.csv/.json (the per-test contract keys), stats.json, correlations.json, drift.json,
+ * distributions.json (its own documented shape, sample/distribution-export.ts), planning.json,
  * crosscheck.csv/.json (curve versus certificate), the complete data-quality lists
  * (flagged.csv, failed.csv, rejections.csv) and curves/ (curve-files.ts, FE tables included).
  * Returns the paths written, and the list files the report links to.
@@ -12,11 +13,14 @@ import type { Store } from '@fractile/store';
 import { listRejections } from '@fractile/store';
 import type { AggregateResult } from '../aggregate/stage.ts';
 import type { CrossCheckResult } from '../crosscheck/crosscheck-stage.ts';
-import type { CurvesStageResult } from '../design-stage.ts';
+import type { CurvesStageResult } from '../design/stage.ts';
 import type { StressUnit } from '../design/fe-table.ts';
 import { driftContract, type DriftResult } from '../monitor/stage.ts';
 import { contractView, loadProperties, PROPERTY_ROW_KEYS } from '../properties.ts';
+import type { GroupPlan } from '../planning/plan-groups.ts';
 import { INFORMATIONAL_FLAGS } from '../report/assemble-report.ts';
+import { distributionExport } from '../sample/distribution-export.ts';
+import type { DistributionStageResult } from '../sample/stage.ts';
 import { writeCsvFile } from './csv-file.ts';
 import { writeCurveFiles } from './curve-files.ts';
 import { jsonEnvelope } from './export-format.ts';
@@ -26,6 +30,10 @@ export interface ExportInputs {
   curves: CurvesStageResult;
   drift: DriftResult;
   crosscheck: CrossCheckResult;
+  distributions: DistributionStageResult;
+  planning: { stats_run: number; plans: GroupPlan[] };
+  codeVersion: string;
+  generatedAt: string;
   /** code version, time, database, grouping, reduce settings hash */
   provenance: Record<string, unknown>;
   driftBy: readonly string[];
@@ -84,6 +92,9 @@ export async function writeExports(store: Store, out: string, inp: ExportInputs)
   json('stats.json', 'stats', inp.aggregate.stats, { stats_run: inp.aggregate.run });
   json('correlations.json', 'correlations', inp.aggregate.correlations, { stats_run: inp.aggregate.run });
   json('drift.json', 'drift', driftContract(inp.drift), { drift_run: inp.drift.run, drift_grouping: inp.driftBy });
+  files.push(join(out, 'distributions.json'));
+  writeFileSync(files[files.length - 1], `${JSON.stringify(distributionExport(inp.distributions, inp.codeVersion, inp.generatedAt), null, 2)}\n`);
+  json('planning.json', 'planning', inp.planning.plans, { stats_run: inp.planning.stats_run });
   json('crosscheck.json', 'crosscheck', { tests: inp.crosscheck.tests, rows: inp.crosscheck.rows });
   csv('crosscheck.csv', {
     kind: 'crosscheck',

@@ -14,7 +14,7 @@ import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import { limitsFor, type PropertyLimits } from '../aggregate/limits.ts';
 import { hashOf } from '../hash.ts';
 import { loadProperties, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
-import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, latestRun, saveSettings, startRun } from '../runs.ts';
+import { exclusiveStage, latestRun, runStage, STAGE_VERSIONS } from '../runs.ts';
 import { alertId, alertStatuses, registerAlerts, type AlertState } from './alert-state.ts';
 
 export interface DriftOptions {
@@ -201,19 +201,15 @@ async function driftAlone(store: Store, opts: DriftOptions): Promise<DriftResult
     filter: opts.filter ?? {},
     spec: opts.catalog ? Object.fromEntries(Object.entries(opts.catalog.grades).map(([g, e]) => [g, { ...e.spec, max_fraction_below: e.max_fraction_below }])) : null,
   };
-  const settingsHash = await saveSettings(db, 'monitor', settings);
-  const inputHash = hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`));
-  const done = await findDoneRun(db, 'monitor', settingsHash, inputHash);
-  let run: number;
-  let analysis: DriftAnalysis | null = done ? await loadDrift(store, done.id) : null;
-  const reused = analysis !== null;
-  if (done && analysis) run = done.id;
-  else {
-    run = await startRun(db, 'monitor', settingsHash, inputHash, opts.codeVersion);
-    analysis = analyzeDrift(rows, opts);
-    await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [[run, 'monitor', JSON.stringify({}), '', JSON.stringify(analysis)]]);
-    await finishRun(db, run, { tests: rows.length, series: analysis.series.length, alerts: analysis.alerts.length, change_points: analysis.change_points.length });
-  }
+  const { run, reused, result: analysis } = await runStage(db, {
+    stage: 'monitor', settings, inputHash: hashOf(rows.map((r) => `${r.test_pk}:${r.settings_hash}`)), codeVersion: opts.codeVersion,
+    reuse: (id) => loadDrift(store, id),
+    compute: async (id) => {
+      const analysis = analyzeDrift(rows, opts);
+      await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [[id, 'monitor', JSON.stringify({}), '', JSON.stringify(analysis)]]);
+      return { result: analysis, counts: { tests: rows.length, series: analysis.series.length, alerts: analysis.alerts.length, change_points: analysis.change_points.length } };
+    },
+  });
   const fresh = await registerAlerts(db, run, analysis.alerts);
   const alerts = await withState(store, analysis.alerts, fresh);
   return { run, reused, ...analysis, alerts, new_alerts: fresh.size, seconds: (performance.now() - t0) / 1000 };

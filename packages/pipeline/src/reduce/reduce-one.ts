@@ -1,10 +1,16 @@
 /**
  * Reduces one test (a curve, or the given values of a summary-only record) to its stored row.
  * Never throws: an unexpected exception becomes a stored failure with code `internal_error`, so one
- * bad curve cannot stop a batch.
+ * bad curve cannot stop a batch. Pure; the reduce stage's workers and the ingest's curve workers
+ * (`@fractile/pipeline/reduce-one`, which loads nothing but this file, task.ts and the curves
+ * package) run the same function, so a test reduced at ingest gets the row `reduce` would write.
+ * The input channels are read, never changed.
  */
 import { propertiesFromSummary, reduceCurve, type TestProperties } from '@fractile/curves';
 import type { ReduceRow, ReduceTask } from './task.ts';
+
+export type { ReduceRow, ReduceTask } from './task.ts';
+export { REDUCE_ROW_COLUMNS } from './task.ts';
 
 const finiteOrNull = (x: number | null | undefined): number | null => (x === null || x === undefined || !Number.isFinite(x) ? null : x);
 

@@ -10,10 +10,11 @@ import type { AggregateResult } from '../aggregate/stage.ts';
 import { groupRows, type GroupField } from '../aggregate/grouping.ts';
 import type { Catalog } from '../catalog.ts';
 import type { CrossCheckResult } from '../crosscheck/crosscheck-stage.ts';
-import type { CurvesStageResult } from '../design-stage.ts';
+import type { CurvesStageResult } from '../design/stage.ts';
 import { hashOf } from '../hash.ts';
 import type { DriftResult } from '../monitor/stage.ts';
 import type { PopulationOptions } from '../population.ts';
+import type { GroupPlan } from '../planning/plan-groups.ts';
 import { loadProperties, NUMERIC_PROPERTIES } from '../properties.ts';
 
 export interface ReportInputs {
@@ -34,6 +35,8 @@ export interface ReportInputs {
   title?: string;
   /** the complete lists written beside the report, relative to it */
   lists?: ReportData['lists'];
+  /** sample-size planning per group and property (pipeline runPlan) */
+  planning?: GroupPlan[];
 }
 
 /** Flags that say how a value was obtained rather than that something needs a look. */
@@ -162,6 +165,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       },
     },
     groups: reportGroups,
+    planning: inp.planning,
     drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons }, series, new_alerts: inp.drift.new_alerts } : null,
     crosscheck: inp.crosscheck ?? null,
     quality: {

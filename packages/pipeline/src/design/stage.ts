@@ -8,14 +8,15 @@
  */
 import type { Store } from '@fractile/store';
 import { summarizeProperty } from '@fractile/stats';
-import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve, type DesignOptions } from './design/index.ts';
-import { gradeOfGroup, propertySummaryOptions } from './aggregate/stage.ts';
-import { groupRows, type GroupField } from './aggregate/grouping.ts';
-import type { Catalog } from './catalog.ts';
-import type { PopulationOptions } from './population.ts';
-import { populationHash } from './population-hash.ts';
-import { currentGrid, loadPopulation, type PropertyFilter, type PropertyKey, type PropertyRow } from './properties.ts';
-import { exclusiveStage, STAGE_VERSIONS, findDoneRun, finishRun, saveSettings, startRun } from './runs.ts';
+import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve, type DesignOptions } from './index.ts';
+import { gradeOfGroup, propertySummaryOptions } from '../aggregate/stage.ts';
+import { groupRows, type GroupField } from '../aggregate/grouping.ts';
+import type { Catalog } from '../catalog.ts';
+import { commonGrid } from '../common-grid.ts';
+import type { PopulationOptions } from '../population.ts';
+import { populationHash } from '../population-hash.ts';
+import { currentGrid, loadPopulation, type PropertyFilter, type PropertyKey, type PropertyRow } from '../properties.ts';
+import { exclusiveStage, runStage, STAGE_VERSIONS } from '../runs.ts';
 
 export interface CurvesStageOptions {
   by: GroupField[];
@@ -66,21 +67,19 @@ async function curvesAlone(store: Store, opts: CurvesStageOptions): Promise<Curv
     algorithm_version: STAGE_VERSIONS.design, by: opts.by, design, filter: opts.filter ?? {}, grids, population: pop.options,
     property_settings: catalog ? Object.fromEntries(Object.entries(catalog.grades).map(([g, e]) => [g, e.properties ?? {}])) : null,
   };
-  const settingsHash = await saveSettings(db, 'design', settings);
-  const inputHash = populationHash(pop);
-  const done = await findDoneRun(db, 'design', settingsHash, inputHash);
-  if (done) {
-    const stored = await loadCurves(store, done.id);
-    if (stored) return { run: done.id, reused: true, ...stored };
-  }
-  const run = await startRun(db, 'design', settingsHash, inputHash, opts.codeVersion);
-  const result = designCurves(rows, grids, opts.by, design, { code_version: opts.codeVersion, generated_at: opts.generatedAt, extra_settings: { design_settings_hash: settingsHash, excluded_tests: pop.excluded.length } }, catalog);
-  await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [
-    ...result.curves.map((c) => [run, 'design', JSON.stringify(c.group), '', JSON.stringify(c)]),
-    [run, 'design', JSON.stringify({}), '_extras', JSON.stringify({ skipped: result.skipped, samples: result.samples, grid: result.grid })],
-  ]);
-  await finishRun(db, run, { tests: rows.length, curves: result.curves.length, skipped: result.skipped.length, excluded_tests: pop.excluded.length });
-  return { run, reused: false, ...result };
+  const r = await runStage<Omit<CurvesStageResult, 'run' | 'reused'>>(db, {
+    stage: 'design', settings, inputHash: populationHash(pop), codeVersion: opts.codeVersion,
+    reuse: async (id) => (await loadCurves(store, id)) ?? null,
+    compute: async (run, settingsHash) => {
+      const result = designCurves(rows, grids, opts.by, design, { code_version: opts.codeVersion, generated_at: opts.generatedAt, extra_settings: { design_settings_hash: settingsHash, excluded_tests: pop.excluded.length } }, catalog);
+      await store.copyRows('group_results', ['run_id', 'stage', 'group_key', 'property', 'body'], [
+        ...result.curves.map((c) => [run, 'design', JSON.stringify(c.group), '', JSON.stringify(c)]),
+        [run, 'design', JSON.stringify({}), '_extras', JSON.stringify({ skipped: result.skipped, samples: result.samples, grid: result.grid })],
+      ]);
+      return { result, counts: { tests: rows.length, curves: result.curves.length, skipped: result.skipped.length, excluded_tests: pop.excluded.length } };
+    },
+  });
+  return { run: r.run, reused: r.reused, ...r.result };
 }
 
 /**
@@ -130,12 +129,12 @@ export function designCurves(
     const all = g.rows.map((i) => allRows[i]);
     const members = all.filter(hasGrid);
     if (members.length === 0) continue;
-    const gridsHere = new Set(members.map((r) => JSON.stringify(grids[r.grade] ?? null)));
-    if (gridsHere.size !== 1 || !grids[members[0].grade]) {
+    const shared = commonGrid(members, grids);
+    if (!shared) {
       skipped.push({ group: g.key, reason: 'the tests of this group were reduced on different plastic-strain grids' });
       continue;
     }
-    grid = grids[members[0].grade];
+    grid = shared;
     const tests = members.map((r) => ({
       test_id: `${r.lab}/${r.test_id}`,
       stress_mpa: r.grid_stress_mpa ?? [],

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { correlationMatrices } from '@fractile/stats';
-import { aggregateRows } from './aggregate/stage.ts';
-import { sampleGroups } from './sample-stage.ts';
-import type { PropertyRow } from './properties.ts';
+import { aggregateRows } from '../aggregate/stage.ts';
+import type { PropertyKey, PropertyRow } from '../properties.ts';
+import { distributionModels } from './distribution-model.ts';
+import { sampleGroups } from './property-sets.ts';
 
 function rows(n: number): PropertyRow[] {
   // yield and tensile strength tied by a fixed ratio plus independent scatter: a strong rank correlation
@@ -19,11 +20,17 @@ function rows(n: number): PropertyRow[] {
   });
 }
 
+function models(n: number, properties: PropertyKey[], bootstrap = 0) {
+  const r = rows(n);
+  const agg = aggregateRows(r, { by: ['grade'], catalog: null, properties });
+  return distributionModels(agg, r, { by: ['grade'], properties, bootstrap, seed: 1 });
+}
+
 describe('correlated property sets', () => {
   it('reproduce the group\'s rank correlations and are the same for the same seed', () => {
-    const agg = aggregateRows(rows(400), { by: ['grade'], catalog: null, properties: ['yield_mpa', 'rm_mpa', 'ag_pct'] });
-    const [a] = sampleGroups(agg, ['yield_mpa', 'rm_mpa', 'ag_pct'], 4000, 3);
-    const [b] = sampleGroups(agg, ['yield_mpa', 'rm_mpa', 'ag_pct'], 4000, 3);
+    const m400 = models(400, ['yield_mpa', 'rm_mpa', 'ag_pct']);
+    const [a] = sampleGroups(m400, 4000, 3);
+    const [b] = sampleGroups(m400, 4000, 3);
     expect(a.rows).toEqual(b.rows);
     expect(a.marginals.map((m) => m.property)).toEqual(['yield_mpa', 'rm_mpa', 'ag_pct']);
     const m = correlationMatrices({ y: a.rows.map((r) => r.yield_mpa), t: a.rows.map((r) => r.rm_mpa), g: a.rows.map((r) => r.ag_pct) });
@@ -34,8 +41,7 @@ describe('correlated property sets', () => {
   });
 
   it('warns instead of sampling a property the group has no values for', () => {
-    const agg = aggregateRows(rows(50), { by: ['grade'], catalog: null, properties: ['yield_mpa', 'rm_mpa', 'n_value'] });
-    const [s] = sampleGroups(agg, ['yield_mpa', 'rm_mpa', 'n_value'], 10, 1);
+    const [s] = sampleGroups(models(50, ['yield_mpa', 'rm_mpa', 'n_value']), 10, 1);
     expect(s.properties).toEqual(['yield_mpa', 'rm_mpa']);
     expect(s.warnings.join(' ')).toMatch(/n_value/);
   });

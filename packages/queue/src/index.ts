@@ -1,0 +1,12 @@
+export { QUEUE_SCHEMA, prepareQueue } from './queue-schema.ts';
+export { JOB_KINDS, MAX_ATTEMPTS, jobKey } from './job-kinds.ts';
+export type { JobKind, IngestJob, ReduceJob, StagesJob } from './job-kinds.ts';
+export { enqueueIngest, partRanges } from './enqueue-ingest.ts';
+export type { EnqueueIngestOptions } from './enqueue-ingest.ts';
+export { enqueueReduce } from './enqueue-reduce.ts';
+export type { EnqueueReduceOptions } from './enqueue-reduce.ts';
+export type { EnqueuedRequest } from './enqueue.ts';
+export { startWorker } from './run-worker.ts';
+export type { RunningWorker, WorkerOptions } from './run-worker.ts';
+export { cancelRequest, failedJobs, queueStatus, requestProgress, retryFailed, settled, watchRequest } from './queue-status.ts';
+export type { FailedJob, KindStatus, RequestProgress } from './queue-status.ts';
