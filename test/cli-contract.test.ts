@@ -156,7 +156,8 @@ describe('fractile command line', () => {
     // property sets drawn with parameter uncertainty carry the model draw they come from
     const u = fractile('sample', '--db', db, '--n', '20', '--parameter-uncertainty', 'bootstrap', '--parameter-draws', '4', '--bootstrap', '50', '--format', 'csv');
     expect(u.status, u.stderr).toBe(0);
-    expect(u.stdout).toMatch(/parameter uncertainty bootstrap with 4 draws/);
+    expect(u.stdout).toMatch(/^# parameter_uncertainty: "bootstrap"$/m);
+    expect(u.stdout).toMatch(/^# parameter_draws: 4$/m);
     expect(u.stdout.split('\n').find((l) => !l.startsWith('#'))).toMatch(/^grade,set,parameter_draw,/);
     // the planning table: the value now and after 10, 20, 50 more tests
     const p = JSON.parse(fractile('plan', '--db', db, '--property', 'yield_mpa', '--replicates', '200', '--format', 'json').stdout);
