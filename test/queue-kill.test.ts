@@ -28,7 +28,7 @@ describe.skipIf(!SERVER)('workers killed with SIGKILL at random moments', () => 
   let c: QueueCheck;
   beforeAll(async () => {
     c = await prepareQueueCheck(SERVER!, { tests: TESTS, points: 200, seed: 1406 });
-  });
+  }, 300_000);
   afterAll(async () => c?.close());
 
   it('loses nothing, repeats nothing, and leaves every run consistent', async () => {
@@ -94,5 +94,5 @@ describe.skipIf(!SERVER)('workers killed with SIGKILL at random moments', () => 
     const abandoned = [...runs.rows, ...ingestRuns.rows].filter((r) => r.status === 'abandoned').reduce((a, r) => a + r.n, 0);
     expect(abandoned).toBeGreaterThanOrEqual(10);
     expect(runs.rows.every((r) => r.status === 'done' || r.status === 'abandoned')).toBe(true);
-  });
+  }, 400_000);
 });

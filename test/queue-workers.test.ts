@@ -43,7 +43,7 @@ describe.skipIf(!SERVER)('3 worker processes against one process (5,000 tests)',
   let c: QueueCheck;
   beforeAll(async () => {
     c = await prepareQueueCheck(SERVER!, { tests: TESTS, points: 200, seed: 14 });
-  });
+  }, 300_000);
   afterAll(async () => c?.close());
 
   it('ends with the same tests and results, each once, and every run consistent', async () => {
@@ -80,5 +80,5 @@ describe.skipIf(!SERVER)('3 worker processes against one process (5,000 tests)',
     expect(stages.rows.map((r) => `${r.stage} ${r.status} ${r.n}`)).toEqual(['aggregate done 1', 'design done 1', 'monitor done 1']);
     const runs = await sql<{ n: number }>`select count(distinct queue_job)::int as n from stage_runs where stage = 'reduce' and status = 'done'`.execute(c.queued.db);
     expect(runs.rows[0].n).toBe(TESTS / 250);
-  });
+  }, 300_000);
 });
