@@ -45,14 +45,14 @@ describe('fractile command line', () => {
     const good = demo.manifests.filter((m) => m.role === 'data' && !m.map).map((m) => join(dir, 'scenario', m.path));
     const r = fractile('ingest', ...good, '--db', db, '--format', 'json');
     expect(r.status).toBe(0);
-    const j = JSON.parse(r.stdout);
+    const j = JSON.parse(r.stdout).data;
     expect(Object.keys(j)).toEqual(expect.arrayContaining(['run', 'accepted', 'duplicates', 'rejected']));
     expect(j.accepted).toBeGreaterThan(30);
     const bad = join(dir, 'bad.csv');
     writeFileSync(bad, 'test_id,grade,supplier,tested_on,shape,diameter[mm],gauge_length[mm],curve,yield[MPa],tensile[MPa]\nX1,G,S,2024-13-01,round,10,50,,400,500\n');
     const b = fractile('ingest', bad, '--db', db, '--format', 'json');
     expect(b.status).toBe(3);
-    const bj = JSON.parse(b.stdout);
+    const bj = JSON.parse(b.stdout).data;
     expect(bj.rejected[0]).toMatchObject({ file: expect.stringContaining('bad.csv'), line: 2, column: 4, code: 'invalid_date' });
     expect(b.stderr).toMatch(/bad\.csv:2:4: invalid_date/);
   });
@@ -61,40 +61,44 @@ describe('fractile command line', () => {
     const r = fractile('reduce', '--db', db, '--catalog', join(dir, 'scenario', demo.catalog), '--workers', '0');
     expect(r.status, r.stderr).toBe(0);
     const p = fractile('properties', '--db', db, '--format', 'json');
-    const rows = JSON.parse(p.stdout) as Record<string, unknown>[];
+    const rows = JSON.parse(p.stdout).data as Record<string, unknown>[];
     const keys = 'lab, test_id, grade, supplier, heat, tested_on, modulus_gpa, rp02_mpa, rt05_mpa, reh_mpa, rel_mpa, ype_pct, rm_mpa, ag_pct, agt_pct, a_pct, yt_ratio, n_value, k_mpa, yield_mpa, yield_definition, shape_class, flags'.split(', ');
     expect(rows.length).toBeGreaterThan(30);
     for (const k of keys) expect(rows[0]).toHaveProperty(k);
     // a continuous curve has no upper yield point: null, not a number (DESIGN.md)
     const continuous = rows.find((x) => x.shape_class === 'continuous');
     expect(continuous?.reh_mpa).toBeNull();
-    const csv = fractile('properties', '--db', db, '--format', 'csv');
+    // plain mode: the header is the first line (spreadsheet import); the default has the comment block above it
+    const csv = fractile('properties', '--db', db, '--format', 'csv', '--no-comments');
     expect(csv.stdout.split('\n')[0]).toBe([...keys, 'given', 'failure'].join(','));
+    const commented = fractile('properties', '--db', db, '--format', 'csv').stdout.split('\n');
+    expect(commented[0]).toMatch(/^# fractile per-test properties/);
+    expect(commented.find((l) => !l.startsWith('#'))).toBe([...keys, 'given', 'failure'].join(','));
   });
 
   it('prints stats, curves and drift in their JSON contracts', () => {
-    const s = JSON.parse(fractile('stats', '--db', db, '--by', 'grade', '--property', 'yield_mpa', '--format', 'json').stdout) as Record<string, unknown>[];
+    const s = JSON.parse(fractile('stats', '--db', db, '--by', 'grade', '--property', 'yield_mpa', '--format', 'json').stdout).data as Record<string, unknown>[];
     expect(Object.keys(s[0])).toEqual(expect.arrayContaining(['group', 'property', 'n', 'mean', 'sd', 'cov', 'min', 'max', 'median', 'percentiles', 'fits', 'best_fit', 'characteristic', 'compliance', 'warnings']));
-    const c = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--format', 'json').stdout) as Record<string, unknown>[];
+    const c = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--format', 'json').stdout).data as Record<string, unknown>[];
     expect(Object.keys(c[0])).toEqual(expect.arrayContaining(['group', 'n', 'plastic_strain', 'median_mpa', 'characteristic_mpa', 'valid_to_plastic_strain', 'extrapolated_from', 'idealized', 'provenance']));
-    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout) as Record<string, unknown>;
+    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout).data as Record<string, unknown>;
     expect(Object.keys(d).sort()).toEqual(['alerts', 'change_points', 'comparisons']);
     for (const a of d.alerts as Record<string, unknown>[]) {
       for (const k of ['group', 'property', 'rule', 'first_date', 'magnitude', 'tests', 'id', 'detected_on', 'change_date', 'chart', 'state', 'new']) expect(a).toHaveProperty(k);
       expect(a.first_date).toBe(a.detected_on);
     }
     const csv = fractile('curves', '--db', db, '--format', 'csv');
-    expect(csv.stdout).toMatch(/^# Statistical estimates from the data given/);
+    expect(csv.stdout).toMatch(/^# caution: Statistical estimates from the data given/m);
     // the band kind (issue 9 contract): pointwise by default
     expect(c[0].band).toBe('pointwise');
-    expect(csv.stdout).toMatch(/^# band: pointwise: /m);
+    expect(csv.stdout).toMatch(/^# band: "pointwise: /m);
   }, 300_000); // five commands in turn: on a busy shared machine more than the default two minutes
 
   it('lists alerts with their state, acknowledges and closes them by id, and says which are new', () => {
     const first = fractile('drift', '--db', db, '--format', 'json');
     expect(first.status, first.stderr).toBe(0);
     expect(first.stderr).toMatch(/0 new since the last run/);
-    const list = JSON.parse(fractile('alerts', '--db', db, '--format', 'json').stdout) as { run: number; alerts: { id: string; state: string }[] };
+    const list = JSON.parse(fractile('alerts', '--db', db, '--format', 'json').stdout).data as { run: number; alerts: { id: string; state: string }[] };
     expect(list.run).toBeGreaterThan(0);
     const bad = fractile('alerts', 'ack', '0123456789ab', '--note', 'x', '--db', db);
     expect(bad.status).toBe(2);
@@ -105,16 +109,16 @@ describe('fractile command line', () => {
     expect(fractile('alerts', 'ack', id, '--db', db).stderr).toMatch(/needs --note/);
     const ack = fractile('alerts', 'ack', id, '--note', 'asked the mill', '--by', 'QA desk', '--db', db);
     expect(ack.status, ack.stderr).toBe(0);
-    const acked = JSON.parse(fractile('alerts', '--state', 'acknowledged', '--db', db, '--format', 'json').stdout) as { alerts: Record<string, unknown>[] };
+    const acked = JSON.parse(fractile('alerts', '--state', 'acknowledged', '--db', db, '--format', 'json').stdout).data as { alerts: Record<string, unknown>[] };
     expect(acked.alerts.map((a) => a.id)).toEqual([id]);
     expect(acked.alerts[0]).toMatchObject({ state: 'acknowledged', state_by: 'QA desk', state_note: 'asked the mill' });
     expect(fractile('alerts', 'close', id, '--by', 'QA desk', '--db', db).status).toBe(0);
-    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout) as { alerts: Record<string, unknown>[] };
+    const d = JSON.parse(fractile('drift', '--db', db, '--format', 'json').stdout).data as { alerts: Record<string, unknown>[] };
     expect(d.alerts.find((a) => a.id === id)).toMatchObject({ state: 'closed', new: false });
   });
 
   it('gives a simultaneous band on request, saying so', () => {
-    const sim = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--band', 'simultaneous', '--band-simulations', '300', '--format', 'json').stdout) as Record<string, unknown>[];
+    const sim = JSON.parse(fractile('curves', '--db', db, '--by', 'grade', '--band', 'simultaneous', '--band-simulations', '300', '--format', 'json').stdout).data as Record<string, unknown>[];
     expect(sim[0].band).toBe('simultaneous');
     expect(sim[0].band_statement).toMatch(/^simultaneous: /);
     expect((sim[0].simultaneous as Record<string, number>).simulations).toBe(300);
@@ -152,7 +156,8 @@ describe('fractile command line', () => {
     // property sets drawn with parameter uncertainty carry the model draw they come from
     const u = fractile('sample', '--db', db, '--n', '20', '--parameter-uncertainty', 'bootstrap', '--parameter-draws', '4', '--bootstrap', '50', '--format', 'csv');
     expect(u.status, u.stderr).toBe(0);
-    expect(u.stdout).toMatch(/parameter uncertainty bootstrap with 4 draws/);
+    expect(u.stdout).toMatch(/^# parameter_uncertainty: "bootstrap"$/m);
+    expect(u.stdout).toMatch(/^# parameter_draws: 4$/m);
     expect(u.stdout.split('\n').find((l) => !l.startsWith('#'))).toMatch(/^grade,set,parameter_draw,/);
     // the planning table: the value now and after 10, 20, 50 more tests
     const p = JSON.parse(fractile('plan', '--db', db, '--property', 'yield_mpa', '--replicates', '200', '--format', 'json').stdout);

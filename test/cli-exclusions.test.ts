@@ -39,7 +39,7 @@ describe.each(testTargets())('exclusions and flagged values through the CLI on $
   const json = <T>(...args: string[]): T => {
     const r = fractile(...args, '--format', 'json');
     expect(r.status, r.stderr).toBe(0);
-    return JSON.parse(r.stdout) as T;
+    return JSON.parse(r.stdout).data as T;
   };
   beforeAll(async () => {
     const t = await tt.create();
@@ -92,7 +92,7 @@ describe.each(testTargets())('exclusions and flagged values through the CLI on $
     expect(quality).toContain('grip failure at 3 % strain');
     expect(quality).toContain(t.test_id);
     expect(quality).toContain('qa-engineer');
-    const after = (JSON.parse(readFileSync(join(out, 'stats.json'), 'utf8')) as { rows: Stats }).rows;
+    const after = (JSON.parse(readFileSync(join(out, 'stats.json'), 'utf8')) as { data: Stats }).data;
     expect(rm(after, victim.grade).n).toBe(rm(before, victim.grade).n - 1);
     expect(rm(after, victim.grade).left_out.by_reason.excluded).toBe(1);
     // one design value: each group's characteristic curve starts from the stats headline of its yield
@@ -115,6 +115,6 @@ describe.each(testTargets())('exclusions and flagged values through the CLI on $
     expect(history.every((h) => h.lab === t.lab && h.test_id === t.test_id && h.decided_by === 'qa-engineer' && !Number.isNaN(Date.parse(h.decided_at)))).toBe(true);
     const back = fractile('stats', '--by', 'grade', '--property', 'modulus_gpa,rm_mpa', '--format', 'json');
     expect(back.stderr).toMatch(/stored results reused/);
-    expect(JSON.parse(back.stdout)).toEqual(before);
+    expect(JSON.parse(back.stdout).data).toEqual(before);
   }, 900_000);
 });

@@ -100,7 +100,7 @@ describe('two writers on one embedded folder', () => {
       first.resume();
       const a = await first.done;
       expect(a.code, a.stderr).toBe(0);
-      expect(JSON.parse(a.stdout)).toMatchObject({ accepted: 30, duplicates: 0, rejected: [] });
+      expect(JSON.parse(a.stdout).data).toMatchObject({ accepted: 30, duplicates: 0, rejected: [] });
       expect(second.code).toBe(4);
       expect(second.stdout).toBe('');
       expect(second.stderr).toContain(`is in use by process ${first.pid} (fractile.js ingest`);
@@ -121,8 +121,8 @@ describe('two writers on one embedded folder', () => {
       const [a, b] = await Promise.all([first.done, second.done]);
       expect(a.code, a.stderr).toBe(0);
       expect(b.code, b.stderr).toBe(0);
-      const ja = JSON.parse(a.stdout);
-      const jb = JSON.parse(b.stdout);
+      const ja = JSON.parse(a.stdout).data;
+      const jb = JSON.parse(b.stdout).data;
       expect(ja).toMatchObject({ accepted: 30, duplicates: 0 });
       expect(jb).toMatchObject({ accepted: 20, duplicates: 10 });
       expect(jb.run).toBeGreaterThan(ja.run);
@@ -144,7 +144,7 @@ if (server) {
         // stored only (--no-reduce), so that the two reduces below have the work to share
         const ingests = await Promise.all(parts.map((p) => start(['ingest', p, '--db', d.url, '--format', 'json', '--progress', 'none', '--batch-size', '5', '--no-reduce']).done));
         for (const r of ingests) expect(r.code, r.stderr).toBe(0);
-        const sums = ingests.map((r) => JSON.parse(r.stdout) as { run: number; accepted: number; duplicates: number; rejected: unknown[] });
+        const sums = ingests.map((r) => JSON.parse(r.stdout).data as { run: number; accepted: number; duplicates: number; rejected: unknown[] });
         expect(sums.reduce((s, x) => s + x.accepted, 0)).toBe(TESTS);
         expect(sums.reduce((s, x) => s + x.duplicates, 0)).toBe(20);
         expect(sums.every((x) => x.rejected.length === 0)).toBe(true);
@@ -153,7 +153,7 @@ if (server) {
 
         const reduces = await Promise.all([0, 1].map(() => start(['reduce', '--db', d.url, '--format', 'json', '--workers', '0']).done));
         for (const r of reduces) expect(r.code, r.stderr).toBe(0);
-        const rs = reduces.map((r) => JSON.parse(r.stdout) as { reduced: number; failed: number; given: number; unchanged: number });
+        const rs = reduces.map((r) => JSON.parse(r.stdout).data as { reduced: number; failed: number; given: number; unchanged: number });
         // one of them reduced everything, the other waited and found it done
         expect(rs.map((x) => x.reduced + x.failed + x.given).sort((a, b) => a - b)).toEqual([0, TESTS]);
         expect(rs.map((x) => x.unchanged).sort((a, b) => a - b)).toEqual([0, TESTS]);

@@ -88,7 +88,7 @@ describe.each(testTargets())('ingest killed mid-batch on $name', (tt) => {
 
       const resumed = await ingest(manifest, crashed.target, false);
       expect(resumed.code).toBe(0);
-      const summary = JSON.parse(resumed.stdout) as { accepted: number; duplicates: number; rejected: unknown[] };
+      const summary = JSON.parse(resumed.stdout).data as { accepted: number; duplicates: number; rejected: unknown[] };
       expect(summary.duplicates).toBe(partial.counts.tests);
       expect(summary.accepted).toBe(TESTS - partial.counts.tests);
       expect(summary.rejected).toEqual([]);

@@ -122,16 +122,16 @@ describe.each(testTargets())('fractile ingest command on $name', (tt) => {
     );
     expect(err).not.toBeNull();
     expect(err!.code).toBe(3);
-    const out = JSON.parse(err!.stdout) as { run: number; accepted: number; duplicates: number; rejected: { file: string; line: number; column: number; code: string }[] };
+    const out = JSON.parse(err!.stdout).data as { run: number; accepted: number; duplicates: number; rejected: { file: string; line: number; column: number; code: string }[] };
     expect(out).toMatchObject({ run: 1, accepted: 1, duplicates: 0 });
     expect(out.rejected.map((r) => [r.file, r.line, r.column, r.code])).toEqual([[manifest, 3, 6, 'nonpositive_dimension']]);
     expect(err!.stderr).toContain(`${manifest}:3:6: nonpositive_dimension:`);
 
     const ok = fixture({ 'm.csv': `${HEADER}\nC,G,S,2024-01-01,,,,470,\n` });
     const good = await run(process.execPath, [CLI, '--db', target.target, 'ingest', path.join(ok, 'm.csv'), '--format', 'json']);
-    expect(JSON.parse(good.stdout)).toMatchObject({ accepted: 1, rejected: [] });
+    expect(JSON.parse(good.stdout).data).toMatchObject({ accepted: 1, rejected: [] });
     const listed = await run(process.execPath, [CLI, 'tests', '--db', target.target, '--format', 'json']);
-    const tests = JSON.parse(listed.stdout) as { test_id: string; has_curve: boolean; area_mm2: number | null }[];
+    const tests = JSON.parse(listed.stdout).data as { test_id: string; has_curve: boolean; area_mm2: number | null }[];
     expect(tests.map((t) => [t.test_id, t.has_curve])).toEqual([['A', true], ['C', false]]);
     expect(tests[0].area_mm2).toBeCloseTo(25 * Math.PI, 12);
   });

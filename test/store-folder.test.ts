@@ -114,7 +114,7 @@ describe('embedded folder errors', () => {
     try {
       const tests = asUser(['tests', '--db', folder, '--format', 'json']);
       expect(tests.status, tests.stderr).toBe(0);
-      expect((JSON.parse(tests.stdout) as { test_id: string }[]).map((t) => t.test_id)).toEqual(['R1']);
+      expect((JSON.parse(tests.stdout).data as { test_id: string }[]).map((t) => t.test_id)).toEqual(['R1']);
       expect(tests.stderr).toMatch(/read-only: reading a temporary copy/);
       const write = asUser(['ingest', manifest, '--db', folder, '--progress', 'none']);
       expect(write.status).toBe(1);

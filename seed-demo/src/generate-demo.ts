@@ -16,7 +16,7 @@ import { AsciiBuffer } from './ascii-buffer.ts';
 import { FOREIGN_COLUMN_MAP, IN_MM, formatCurveCsv } from './curve-format.ts';
 import { dayOf, isoOf, yearOf } from './dates.ts';
 import { Rng, mixSeed } from './random.ts';
-import { DRIFT, FABRICATOR, MILLS, SPECIAL_SHARES, SUMMARY_ONLY_SHARE, WINDOW_END, WINDOW_START, catalogJson, gradeDef } from './scenario.ts';
+import { CERTIFICATES, DRIFT, FABRICATOR, MILLS, SPECIAL_SHARES, SUMMARY_ONLY_SHARE, WINDOW_END, WINDOW_START, catalogJson, gradeDef } from './scenario.ts';
 import type { CurveLayout, GradeDef, MillDef } from './scenario.ts';
 import { simulateTest } from './simulate-test.ts';
 import type { SimulatedTest } from './simulate-test.ts';
@@ -45,6 +45,8 @@ export interface DemoCounts {
   tests: number;
   curveTests: number;
   summaryOnly: number;
+  /** curve tests that also carry certificate values (CERTIFICATES in scenario.ts) */
+  certificates: number;
   curveFiles: number;
   bySupplier: Record<string, number>;
   byGrade: Record<string, number>;
@@ -296,6 +298,7 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
     tests: 0,
     curveTests: 0,
     summaryOnly: 0,
+    certificates: 0,
     curveFiles: 0,
     bySupplier: {},
     byGrade: {},
@@ -360,6 +363,22 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
       counts.byLayout[p.layout]++;
       if (p.loop) counts.unloadReload++;
     } else counts.summaryOnly++;
+    // the mill's own certificate beside some curves, from a stream of its own (scenario.ts CERTIFICATES)
+    const certRng = new Rng(mixSeed(seed ^ CERTIFICATES.stream, index + 1));
+    const certificate = sim.signal !== null && p.day >= dayOf(CERTIFICATES.from) && certRng.chance(CERTIFICATES.share);
+    if (certificate) counts.certificates++;
+    const cert = (x: number, bias = 0) => x * (1 + CERTIFICATES.scatter * certRng.normal()) + bias;
+    const given = p.summary || certificate;
+    const values = p.summary
+      ? { y: Math.round(yieldTruth), rm: Math.round(t.rmMpa), ag: roundTo(t.agPct, 0.5).toFixed(1), a: roundTo(t.aPct, 0.5).toFixed(1) }
+      : certificate
+        ? {
+            y: Math.round(cert(yieldTruth, CERTIFICATES.yieldBiasMpa[p.mill.key] ?? 0)),
+            rm: Math.round(cert(t.rmMpa)),
+            ag: roundTo(cert(t.agPct), 0.5).toFixed(1),
+            a: roundTo(cert(t.aPct), 0.5).toFixed(1),
+          }
+        : null;
     const row: Cell[] = [
       testId,
       lab,
@@ -376,11 +395,11 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
       p.orientation,
       rng.int(18, 24),
       curveRel,
-      p.summary ? Math.round(yieldTruth) : null,
-      p.summary ? g.yieldDefinition : null,
-      p.summary ? Math.round(t.rmMpa) : null,
-      p.summary ? roundTo(t.agPct, 0.5).toFixed(1) : null,
-      p.summary ? roundTo(t.aPct, 0.5).toFixed(1) : null,
+      values?.y ?? null,
+      given ? g.yieldDefinition : null,
+      values?.rm ?? null,
+      values?.ag ?? null,
+      values?.a ?? null,
     ];
     m.writer.write(row);
     const law = sim.draw.law;

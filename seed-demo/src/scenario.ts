@@ -186,6 +186,22 @@ export const DRIFT = {
 /** Share of summary-only records (older certificates) by year. */
 export const SUMMARY_ONLY_SHARE: Readonly<Record<number, number>> = { 2023: 0.25, 2024: 0.08, 2025: 0.03 };
 
+/**
+ * Certificate values beside a curve: from this date, a share of each mill's curve tests also carry
+ * the mill's own certificate values (yield, tensile, elongations), measured on a sister specimen
+ * of the same heat, so they scatter about the curve's values (CoV `scatter`) and are rounded as
+ * certificates are. One mill's certificates read high on yield by `yieldBiasMpa` — what the
+ * curve-versus-certificate cross-check is there to show. Drawn from a random stream of their own,
+ * so the rest of the scenario is the same as without them.
+ */
+export const CERTIFICATES = {
+  from: '2024-01-01',
+  share: 0.3,
+  scatter: 0.012,
+  yieldBiasMpa: { marrisford: 11 } as Readonly<Record<string, number>>,
+  stream: 0x7e57ce87,
+} as const;
+
 /** Shares of the special curve layouts among the standard-lab curve tests. */
 export const SPECIAL_SHARES = {
   stressStrain: 0.02,

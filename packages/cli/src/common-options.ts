@@ -6,8 +6,9 @@
 import type { Command } from 'commander';
 import type { Kysely } from 'kysely';
 import type { Database, Store } from '@fractile/store';
-import type { Catalog, PropertyFilter, PropertyKey } from '@fractile/pipeline';
-import { CliError, dbTarget, log, type GlobalOptions } from './context.ts';
+import type { Catalog, GroupField, PropertyFilter, PropertyKey } from '@fractile/pipeline';
+import { CliError, log, type GlobalOptions } from './context.ts';
+import { chooseDb, requireEmbeddedDatabase } from './db-target.ts';
 
 export function addFilterOptions(cmd: Command): Command {
   return cmd
@@ -74,24 +75,80 @@ export function probability(s: unknown, name: string, dflt: number): number {
   return x;
 }
 
-/** --catalog FILE, else the catalog the latest reduce run used, else none. */
-export async function resolveCatalog(db: Kysely<Database>, file: unknown): Promise<Catalog | null> {
+/** A grouping option (--by, --drift-by) checked before any database is opened: an unknown field is exit 2. */
+export async function groupBy(spec: unknown, name = '--by'): Promise<GroupField[]> {
+  const { parseGroupBy, GroupingError } = await import('@fractile/pipeline');
+  try {
+    return parseGroupBy(typeof spec === 'string' ? spec : undefined);
+  } catch (e) {
+    if (e instanceof GroupingError) throw new CliError(`${name}: ${e.message}`);
+    throw e;
+  }
+}
+
+/**
+ * The filter's grades, suppliers and orientations checked against what is stored: a value that
+ * names nothing is a usage error (exit 2) listing the values that exist, so that a typo is told
+ * apart from an empty result.
+ */
+export async function checkFilterValues(db: Kysely<Database>, filter: { grade?: string[]; supplier?: string[]; orientation?: string[]; lab?: string[] }): Promise<void> {
+  const { distinctTestValues } = await import('@fractile/store');
+  for (const [column, option] of [['grade', '--grade'], ['supplier', '--supplier'], ['orientation', '--orientation'], ['lab', '--lab']] as const) {
+    const asked = filter[column];
+    if (!asked?.length) continue;
+    const known = await distinctTestValues(db, column);
+    const missing = asked.filter((v) => !known.includes(v));
+    if (missing.length === 0) continue;
+    const squash = (v: string) => v.toLowerCase().replace(/[^\p{L}\p{N}]/gu, '');
+    const near = missing.map((m) => known.find((k) => squash(k) === squash(m))).filter(Boolean);
+    throw new CliError(
+      `${option}: no stored test has ${column} ${missing.map((m) => `"${m}"`).join(', ')}${near.length ? ` (did you mean ${near.map((n) => `"${n}"`).join(', ')}?)` : ''}; ` +
+        (known.length ? `the ${column} values stored: ${known.join(', ')}` : 'the database holds no tests yet'),
+    );
+  }
+}
+
+/** --catalog FILE, else the project file's catalog, else the catalog the latest reduce run used, else none. */
+export async function resolveCatalog(db: Kysely<Database>, file: unknown, g?: GlobalOptions): Promise<Catalog | null> {
   const { currentCatalog, loadCatalog } = await import('@fractile/pipeline');
-  if (typeof file === 'string') return loadCatalog(file);
+  const path = catalogPath(file, g);
+  if (path) return loadCatalog(path);
   return currentCatalog(db);
+}
+
+/** The catalog file a command uses: --catalog, else the project file's, else none. */
+export function catalogPath(file: unknown, g?: GlobalOptions): string | null {
+  if (typeof file === 'string') return file;
+  return g?.project?.catalog ?? null;
 }
 
 /**
  * Commands whose writes (cached stage results) need not be kept: on a read-only embedded folder
  * they work on a temporary copy (store embedded-folder.ts).
  */
-const READING_COMMANDS = new Set(['tests', 'properties', 'stats', 'curves', 'drift', 'sample', 'report']);
+const READING_COMMANDS = new Set(['tests', 'properties', 'stats', 'curves', 'drift', 'sample', 'report', 'alerts list', 'exclusions', 'crosscheck']);
+/** The commands that may create a database; every other refuses one that does not exist (db-target.ts). */
+const CREATING_COMMANDS = new Set(['ingest', 'demo']);
 
+/**
+ * Opens the database the command names (db-target.ts), runs `fn`, closes it. Only `ingest` and
+ * `demo` create a database: for the others a missing embedded folder, or a server database
+ * without fractile's tables, is a usage error (exit 2) before anything is written.
+ */
 export async function withStore<T>(g: GlobalOptions, fn: (store: Store) => Promise<T>): Promise<T> {
-  const { openStore } = await import('@fractile/store');
-  const store = await openStore(dbTarget(g), { waitMs: g.waitSeconds * 1000, readOnly: READING_COMMANDS.has(g.command) });
-  if (store.readOnlyCopy) log(`fractile: the database folder ${dbTarget(g)} is read-only: reading a temporary copy (results computed now are not kept)`);
+  const choice = chooseDb(g, g.project);
+  const creates = CREATING_COMMANDS.has(g.command);
+  if (!creates) requireEmbeddedDatabase(choice);
+  const { isInitialized, migrateToLatest, openStore } = await import('@fractile/store');
+  const checkServer = choice.server && !creates;
+  const store = await openStore(choice.target, { waitMs: g.waitSeconds * 1000, readOnly: READING_COMMANDS.has(g.command), migrate: !checkServer });
   try {
+    if (checkServer) {
+      if (!(await isInitialized(store.db))) throw new CliError(`the server database ${choice.target.replace(/\/\/[^@/]*@/, '//…@')} holds no fractile data (${choice.source}): \`fractile ingest MANIFEST.csv --db …\` creates the tables`);
+      await migrateToLatest(store.db);
+    }
+    g.database = { engine: store.engine, target: store.engine === 'postgres' ? store.target.replace(/\/\/[^@/]*@/, '//…@') : store.target };
+    if (store.readOnlyCopy) log(`fractile: the database folder ${choice.target} is read-only: reading a temporary copy (results computed now are not kept)`);
     return await fn(store);
   } finally {
     await store.close();

@@ -10,10 +10,10 @@ import { CatalogError } from '@fractile/pipeline';
 import { StoreError } from '@fractile/store';
 import { CliError, EXIT_BUSY, reportFailure } from './context.ts';
 
-function printed(err: unknown): { code: number; text: string } {
+function printed(err: unknown, debug = false): { code: number; text: string } {
   let text = '';
   const spy = vi.spyOn(process.stderr, 'write').mockImplementation((s: string | Uint8Array) => ((text += String(s)), true));
-  const code = reportFailure(err);
+  const code = reportFailure(err, debug);
   spy.mockRestore();
   return { code, text };
 }
@@ -44,12 +44,25 @@ describe('reportFailure', () => {
   });
 
   it('prints a thrown object that is not an Error as its JSON, not [object Object]', () => {
-    expect(printed({ reason: 'closed' })).toEqual({ code: 1, text: 'fractile: {"reason":"closed"}\n' });
+    expect(printed({ reason: 'closed' }).text).toMatch(/^fractile: internal error: \{"reason":"closed"\}\n/);
   });
 
-  it('keeps the stack of an unexpected error (a defect)', () => {
+  it('prints an unexpected error (a defect) without its stack unless --debug', () => {
     const out = printed(new TypeError('x is undefined'));
     expect(out.code).toBe(1);
-    expect(out.text).toMatch(/^fractile: TypeError: x is undefined\n\s+at /);
+    expect(out.text).toMatch(/^fractile: internal error: x is undefined\n.*--debug/);
+    expect(out.text).not.toMatch(/\s+at /);
+    const debug = printed(new TypeError('x is undefined'), true);
+    expect(debug.text).toMatch(/^fractile: TypeError: x is undefined\n\s+at /);
+  });
+
+  it('says plainly that a server cannot be reached or has no such database, exit 2', () => {
+    const refused = Object.assign(new Error('connect ECONNREFUSED 127.0.0.1:1'), { code: 'ECONNREFUSED', syscall: 'connect' });
+    // kysely's migrator wraps the driver's error as its cause
+    const out = printed(new Error('migration (unknown) failed', { cause: refused }));
+    expect(out.code).toBe(2);
+    expect(out.text).toMatch(/^fractile: cannot use the database server: connection refused.*ECONNREFUSED.*--db/);
+    const none = Object.assign(new pg.DatabaseError('database "nosuch" does not exist', 0, 'error'), { severity: 'FATAL', code: '3D000' });
+    expect(printed(none)).toMatchObject({ code: 2, text: expect.stringMatching(/no database of that name: create it/) });
   });
 });

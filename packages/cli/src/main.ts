@@ -12,9 +12,12 @@ export async function buildProgram(): Promise<Command> {
   program
     .description('Tensile tests in, characteristic design values out: ingest, reduce, statistics, curves, drift and reports.')
     .version(CODE_VERSION)
-    .option('--db <url|path>', 'database: a folder for the embedded database, or postgres://… (default: $DATABASE_URL, else ./.fractile/db)')
+    .option('--db <url|path>', 'database: a folder for the embedded database, or postgres://user@host:port/db (default: $DATABASE_URL, else the "database" of ./fractile.json, else ./.fractile/db)')
     .option('--format <format>', 'output format: table, json or csv', 'table')
     .option('--wait <seconds>', 'embedded database: wait this long for another fractile process using the folder (default: fail at once, exit 4)')
+    .option('--no-comments', 'CSV without the comment block above the header (for spreadsheet import); the caution and provenance go to --sidecar FILE, or the caution to stderr')
+    .option('--sidecar <file>', 'with --format csv --no-comments: write the provenance (JSON envelope) to this file')
+    .option('--debug', 'print the stack of an unexpected error')
     .showHelpAfterError()
     // usage errors exit with 2 like every other bad input (commander's own default is 1)
     .exitOverride((err) => process.exit(err.exitCode === 0 ? 0 : 2))
@@ -30,7 +33,7 @@ async function main(): Promise<void> {
   try {
     await program.parseAsync(process.argv);
   } catch (err) {
-    process.exitCode = reportFailure(err);
+    process.exitCode = reportFailure(err, process.argv.includes('--debug'));
   }
 }
 

@@ -5,7 +5,9 @@
  */
 import type { RequestProgress } from '@fractile/queue';
 import type { Store } from '@fractile/store';
-import { CliError, dbTarget, log, type GlobalOptions } from './context.ts';
+import { CliError, log, type GlobalOptions } from './context.ts';
+import { chooseDb } from './db-target.ts';
+import { print } from './output.ts';
 import { progressBar } from './progress.ts';
 
 /** A whole-number option ≥ `min`, else a usage error naming it. */
@@ -17,7 +19,7 @@ export function wholeNumber(s: string, name: string, min: number): number {
 
 /** Throws a usage error (exit 2) unless the database is a server. */
 export async function requireServer(g: GlobalOptions, what: string): Promise<void> {
-  const target = dbTarget(g);
+  const target = chooseDb(g, g.project).target;
   const { isServerTarget } = await import('@fractile/store');
   if (!isServerTarget(target)) throw new CliError(`${what} needs a PostgreSQL server (--db postgres://… or DATABASE_URL); "${target}" is an embedded database folder, which one process uses at a time: run the command without the queue there`);
 }
@@ -44,12 +46,11 @@ export async function queueIngest(g: GlobalOptions, manifests: string[], o: { ma
   await requireServer(g, '--queue');
   const { enqueueIngest } = await import('@fractile/queue');
   const { withStore } = await import('./common-options.ts');
-  const { emit } = await import('./context.ts');
   await withStore(g, async (store) => {
     const r = await enqueueIngest(store, manifests, { map: o.map ?? null, replace: o.replace, batchSize: o.batchSize, partRows: o.partRows });
     log(`ingest: request ${r.request}: ${r.parts} part(s) of at most ${o.partRows} manifest rows queued; \`fractile worker\` runs them`);
     const last = o.watch ? await watchOnStderr(store, r.request, o.progress) : null;
-    emit(g.format, { ...r, progress: last }, [{ request: r.request, parts: r.parts, done: last?.done ?? null, failed: last?.failed ?? null }]);
+    print(g, { kind: 'queue request', data: { ...r, progress: last }, rows: [{ request: r.request, parts: r.parts, done: last?.done ?? null, failed: last?.failed ?? null }], title: 'fractile queue: request enqueued', result: false });
   });
 }
 
@@ -62,7 +63,6 @@ export async function queueReduce(
   const { enqueueReduce } = await import('@fractile/queue');
   const { parseGroupBy } = await import('@fractile/pipeline');
   const { resolveCatalog, withStore } = await import('./common-options.ts');
-  const { emit } = await import('./context.ts');
   parseGroupBy(o.by);
   parseGroupBy(o.driftBy);
   await withStore(g, async (store) => {
@@ -70,6 +70,6 @@ export async function queueReduce(
     const r = await enqueueReduce(store, { catalog, overrides: o.fits ? {} : { fitLaws: false }, batchSize: o.batchSize, thenStages: o.thenStages ? { by: o.by, driftBy: o.driftBy } : null });
     log(`reduce: request ${r.request}: ${r.parts} batch(es) of at most ${o.batchSize} tests queued${o.thenStages ? ', then stats, curves and drift' : ''}; \`fractile worker\` runs them`);
     const last = o.watch ? await watchOnStderr(store, r.request, o.progress) : null;
-    emit(g.format, { ...r, progress: last }, [{ request: r.request, parts: r.parts, done: last?.done ?? null, failed: last?.failed ?? null }]);
+    print(g, { kind: 'queue request', data: { ...r, progress: last }, rows: [{ request: r.request, parts: r.parts, done: last?.done ?? null, failed: last?.failed ?? null }], title: 'fractile queue: request enqueued', result: false });
   });
 }

@@ -1,20 +1,21 @@
 /**
  * Output of `fractile sample --curves`: the random-curves export (pipeline randomCurvesExport) as
  * one JSON document, as the long CSV table after its `#` header lines (written through the one
- * CSV cell writer, `toCsv`), or as a summary table; and, with --out, one CSV and one JSON file
+ * CSV cell writer, `csvTable`), or as a summary table; and, with --out, one CSV and one JSON file
  * per group.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { RandomCurvesExport } from '@fractile/pipeline';
-import { log, toCsv, toTable, type OutputFormat } from './context.ts';
-import { groupSlug } from './curve-files.ts';
+import { csvTable, groupSlug } from '@fractile/pipeline';
+import { log, type OutputFormat } from './context.ts';
+import { toTable } from './output.ts';
 
 export async function printRandomCurves(doc: RandomCurvesExport, format: OutputFormat, outDir: string | null): Promise<void> {
   const { randomCurvesTable } = await import('@fractile/pipeline');
   const csvOf = (d: RandomCurvesExport) => {
     const t = randomCurvesTable(d);
-    return t.header.map((h) => `# ${h}\n`).join('') + toCsv(t.rows, t.columns);
+    return t.header.map((h) => `# ${h}\n`).join('') + csvTable(t.rows, t.columns);
   };
   if (outDir !== null) {
     mkdirSync(outDir, { recursive: true });

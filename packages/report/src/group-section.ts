@@ -8,7 +8,7 @@ import { formatInteger, formatShort } from './format-number.ts';
 import { groupLabel } from './group-label.ts';
 import { headlineCharacteristic, renderHistogram } from './histogram-chart.ts';
 import { escapeHtml } from './html-escape.ts';
-import { jsonDefinitionList } from './json-view.ts';
+import { idealizedPanel } from './idealized-panel.ts';
 import { propertyAxisTitle } from './property-labels.ts';
 import { propertyTable } from './property-table.ts';
 import type { ReportGroup } from './types.ts';
@@ -39,10 +39,7 @@ export async function groupSection(group: ReportGroup, index: number): Promise<s
     curves = `<div class="curve-row">
 ${chartFigure(svg, `Thin lines: ${group.sample_curves.length} of the group's test curves. Bold: median and characteristic true stress. Dotted rule: validity limit.${extrapolation} ${bandCaption(group.curves)}`)}
 <div class="side">
-<h3>Idealized characteristic curve</h3>
-${jsonDefinitionList(group.curves.idealized ?? {})}
-<h3>Provenance</h3>
-${jsonDefinitionList(group.curves.provenance ?? {}, ['caution'])}
+${idealizedPanel(group.curves)}
 </div>
 </div>`;
   }

@@ -59,6 +59,9 @@ dl.kv { display: grid; grid-template-columns: max-content 1fr; gap: 2px 12px; ma
 dl.kv dt { color: var(--muted); }
 dl.kv .kv-line { display: block; }
 dl.kv dd { margin: 0; font-variant-numeric: tabular-nums; overflow-wrap: anywhere; }
+.side h4 { font-size: 12.5px; margin: 10px 0 3px; }
+.side details.provenance { margin-top: 10px; font-size: 12.5px; }
+table.compact td, table.compact th { padding: 1px 6px; font-size: 12px; }
 footer { max-width: 1280px; margin: 0 auto; padding: 0 28px 32px; color: var(--muted); font-size: 12px; }
 @media (max-width: 900px) { .curve-row, .two-col { grid-template-columns: 1fr; } nav.toc ol { columns: 1; } }
 @media print {

@@ -79,10 +79,36 @@ export interface CharacteristicCurve {
   extrapolated_from: number | null;
   /** The law used beyond `extrapolated_from` (curves stage extension), where known. */
   extrapolation?: { law: string } | null;
-  /** Idealizations of the characteristic curve (fitted laws, bilinear model …), shown as given. */
-  idealized: Readonly<Record<string, JsonValue>> | null;
-  /** Provenance as the curves stage records it; a `caution` key is not repeated on the page. */
-  provenance: Readonly<Record<string, JsonValue>> | null;
+  /** Idealizations of the characteristic curve, shown in the trade's words and units. */
+  idealized: IdealizedCurves | null;
+  /** Provenance as the curves stage records it; its `caution` is not repeated on the page. */
+  provenance: CurveProvenance | null;
+  /** Yields the curves start at [MPa], and the modulus used for the elastic part [MPa]. */
+  characteristic_yield_mpa?: number | null;
+  median_yield_mpa?: number | null;
+  e_mpa?: number | null;
+}
+
+/** The idealizations of a characteristic curve (curves stage). Stresses in MPa, strains [–]. */
+export interface IdealizedCurves {
+  elastic_perfectly_plastic: { e_mpa: number | null; yield_mpa: number };
+  /** Linear hardening: slope against true plastic strain, and against total strain E·H/(E + H). */
+  bilinear: { e_mpa: number | null; yield_mpa: number; hardening_modulus_mpa: number; tangent_modulus_mpa: number | null; rmse_mpa: number };
+  multilinear: { plastic_strain: readonly number[]; stress_mpa: readonly number[]; extrapolated: readonly boolean[] };
+  /** ε = σ/E + 0.002·(σ/σ0)^m */
+  ramberg_osgood: { e_mpa: number | null; sigma0_mpa: number; m: number; rmse_mpa: number } | null;
+}
+
+/** How a characteristic curve came about: tests, settings and their hash, code version, date. */
+export interface CurveProvenance {
+  group: GroupKey;
+  n_tests: number;
+  test_ids_sha256: string;
+  settings: Readonly<Record<string, string | number | boolean | null>>;
+  settings_hash: string;
+  code_version: string;
+  generated_at: string;
+  caution?: string;
 }
 
 /** One measured test curve (already thinned by the pipeline), true stress on plastic strain. */
@@ -171,6 +197,43 @@ export interface ReportGroup {
   curves: CharacteristicCurve | null;
   sample_curves: readonly SampleCurve[];
   properties: readonly ReportProperty[];
+  /** the group's statistics split further (by supplier within a grade); absent or null: none */
+  breakdown?: ReportBreakdown | null;
+}
+
+/** A group's statistics split by further fields (e.g. supplier), one row per subgroup. */
+export interface ReportBreakdown {
+  /** the fields the rows differ in */
+  by: readonly string[];
+  rows: readonly { key: GroupKey; stats: readonly PropertyStats[] }[];
+}
+
+// ---------------------------------------------------------------------------------------------
+// curve versus certificate
+
+/** Certificate − curve differences of one supplier and property (paired, Bland–Altman). */
+export interface CrossCheckRow {
+  supplier: string;
+  property: string;
+  /** the curve value compared, e.g. `rp02_mpa` for a yield given as Rp0.2 */
+  curve_key: string;
+  unit: string;
+  n: number;
+  mean_difference: number | null;
+  sd_difference: number | null;
+  ci: readonly [number, number] | null;
+  level: number;
+  limits_of_agreement: readonly [number, number] | null;
+  mean_relative_pct: number | null;
+  max_abs_difference: number | null;
+  /** the interval of the mean difference excludes zero */
+  systematic: boolean;
+}
+
+export interface CrossCheck {
+  /** tests with both a curve and certificate values */
+  tests: number;
+  rows: readonly CrossCheckRow[];
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -397,8 +460,20 @@ export interface ReportOptions {
   max_rows?: number;
 }
 
+/** Complete lists written beside the report (file names relative to it), linked from it. */
+export interface ReportLists {
+  flagged?: string;
+  failed?: string;
+  rejections?: string;
+  crosscheck?: string;
+}
+
 export interface ReportData {
   meta: ReportMeta;
+  /** curve versus certificate (absent or null: not computed) */
+  crosscheck?: CrossCheck | null;
+  /** complete lists beside the report (absent: none written) */
+  lists?: ReportLists;
   /** Caution shown at top and bottom; default `DESIGN_VALUE_CAUTION`. */
   caution?: string;
   groups: readonly ReportGroup[];

@@ -3,6 +3,7 @@
 export * from './monitor/index.ts';
 export { normalQuantile, normalCdf, normalPdf } from './special/normal.ts';
 export { studentTQuantile, studentTCdf } from './special/student-t.ts';
+export { pairedDifferences, type PairedDifferences } from './paired-differences.ts';
 export { noncentralTCdf, noncentralTSf, noncentralTQuantile } from './special/noncentral-t.ts';
 export { normalToleranceFactor } from './tolerance-factor.ts';
 export { en1990Kn } from './en1990-fractile.ts';

@@ -52,6 +52,12 @@ async function upToDate(db: Kysely<Database>): Promise<boolean> {
   return applied.length === known.length && known.every((n) => done.has(n));
 }
 
+/** True when fractile's schema has been created in this database (its migration table exists). */
+export async function isInitialized(db: Kysely<Database>): Promise<boolean> {
+  const r = await sql<{ t: string | null }>`select to_regclass(${MIGRATION_TABLE})::text as t`.execute(db);
+  return r.rows[0]?.t != null;
+}
+
 /** Applies every pending migration; returns the names applied. Throws MigrationError on failure. */
 export async function migrateToLatest(db: Kysely<Database>): Promise<string[]> {
   if (await upToDate(db)) return [];

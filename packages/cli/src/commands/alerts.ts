@@ -4,7 +4,8 @@
  */
 import { userInfo } from 'node:os';
 import type { Command } from 'commander';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { grouped, print } from '../output.ts';
 import { withStore } from '../common-options.ts';
 
 const STATES = ['open', 'acknowledged', 'closed', 'all'] as const;
@@ -36,7 +37,7 @@ function act(parent: Command, name: string, action: 'acknowledge' | 'close' | 'r
           throw e;
         }
         log(`alerts: ${ids.length} ${action === 'acknowledge' ? 'acknowledged' : action === 'close' ? 'closed' : 'reopened'} by ${by}`);
-        emit(g.format, { action, ids, by, note: o.note?.trim() || null }, ids.map((id) => ({ id, action, by, note: o.note ?? null })));
+        print(g, { kind: 'alert-action', data: { action, ids, by, note: o.note?.trim() || null }, rows: ids.map((id) => ({ id, action, by, note: o.note ?? null })), title: `fractile alerts ${name}: the decisions recorded`, result: false });
       });
     });
 }
@@ -58,7 +59,8 @@ export const command: CommandModule = {
           if (!last) throw new CliError('drift has not been run yet: run `fractile drift` first');
           const shown = last.alerts.filter((a) => o.state === 'all' || a.state === o.state);
           log(`alerts: ${shown.length} of ${last.alerts.length} from drift run ${last.run}`);
-          emit(g.format, { run: last.run, alerts: shown }, shown.map((a) => ({ id: a.id, state: a.state, by: a.state_by, note: a.state_note, group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, detected_on: a.detected_on, change_date: a.change_date, magnitude: a.magnitude, unit: a.magnitude_unit })));
+          const view = grouped(shown.map((a) => ({ group: a.group, row: { id: a.id, state: a.state, by: a.state_by, note: a.state_note, property: a.property, rule: a.rule, detected_on: a.detected_on, change_date: a.change_date, magnitude: a.magnitude, unit: a.magnitude_unit } })));
+          print(g, { kind: 'alerts', data: { run: last.run, alerts: shown }, ...view, title: 'fractile drift alerts with their state', provenance: { drift_run: last.run, state: o.state } });
         });
       });
     act(alerts, 'ack', 'acknowledge', 'acknowledge alerts: seen and being looked into (needs --note)', true);

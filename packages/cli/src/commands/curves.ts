@@ -5,8 +5,11 @@
  */
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
-import { CliError, globals, log, toCsv, type CommandModule } from '../context.ts';
-import { addFilterOptions, addPopulationOptions, probability, readFilter, readPopulation, resolveCatalog, withStore } from '../common-options.ts';
+import { groupLabel } from '@fractile/report/group-label';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { addFilterOptions, addPopulationOptions, catalogPath, checkFilterValues, groupBy, probability, readFilter, readPopulation, resolveCatalog, withStore } from '../common-options.ts';
+import { grouped, print } from '../output.ts';
+import { checkOutFolder } from '../run-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
 const LAWS = ['swift', 'voce', 'hollomon'] as const;
@@ -28,13 +31,18 @@ export const command: CommandModule = {
         .option('--catalog <file>', 'grade catalog for the headline settings of the characteristic yield (default: the catalog of the last reduce)')
         .option('--band <kind>', 'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band (the whole curve at once, critical value by simulation)', 'pointwise')
         .option('--band-simulations <n>', 'Monte Carlo replicates for the simultaneous band’s critical value', '2000')
-        .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder'),
+        .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder, with the FE tables')
+        .option('--fe-unit <unit>', 'stress unit of the FE tables written with --out: MPa or ksi', 'MPa'),
     ))
-      .addHelpText('after', '\nCSV on stdout is a long table (group, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution and the band kind.')
+      .addHelpText('after', '\nCSV on stdout is a long table (the group fields, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution, the provenance and the band kind (--no-comments: none).\nWith --out, per group <group>.true-stress-plastic-strain.csv is the FE table: true stress against true plastic strain from 0, two columns, no comment lines, its provenance in <file>.provenance.json.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { bandStatement, DESIGN_CAUTION, parseGroupBy, runCurves } = await import('@fractile/pipeline');
-        const { writeCurveFiles } = await import('../curve-files.ts');
+        const { bandStatement, runCurves, writeCurveFiles, STRESS_UNITS } = await import('@fractile/pipeline');
         const g = globals(cmd);
+        const by = await groupBy(o.by);
+        const filter = readFilter(o);
+        const feUnit = String(o.feUnit) as (typeof STRESS_UNITS)[number];
+        if (!STRESS_UNITS.includes(feUnit)) throw new CliError(`--fe-unit must be ${STRESS_UNITS.join(' or ')}, got "${String(o.feUnit)}"`);
+        if (typeof o.out === 'string') checkOutFolder(o.out);
         const model = o.model as string;
         if (model !== 'normal' && model !== 'lognormal') throw new CliError('--model must be normal or lognormal');
         const law = o.extrapolate as string | undefined;
@@ -58,27 +66,30 @@ export const command: CommandModule = {
           ...(o.extrapolateTo !== undefined ? { extrapolateTo: Number(o.extrapolateTo) } : {}),
         };
         await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
-          const r = await runCurves(store, { by: parseGroupBy(o.by as string), design, filter: readFilter(o), catalog, population: readPopulation(o), codeVersion: CODE_VERSION, generatedAt: new Date().toISOString() });
+          await checkFilterValues(store.db, filter);
+          const catalog = await resolveCatalog(store.db, o.catalog, g);
+          const r = await runCurves(store, { by, design, filter, catalog, population: readPopulation(o), codeVersion: CODE_VERSION, generatedAt: g.startedAt });
           log(`curves: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.curves.length} groups${r.skipped.length ? `, ${r.skipped.length} left out` : ''}`);
-          for (const s of r.skipped) log(`  left out ${JSON.stringify(s.group)}: ${s.reason}`);
-          if (typeof o.out === 'string') log(`curves: wrote ${writeCurveFiles(o.out, r.curves).length} files under ${o.out}`);
-          if (g.format === 'json') {
-            process.stdout.write(JSON.stringify(r.curves, null, 2) + '\n');
-          } else if (g.format === 'csv') {
-            const rows = r.curves.flatMap((c) =>
-              c.plastic_strain.map((x, i) => ({ ...c.group, plastic_strain: x, median_mpa: c.median_mpa[i], characteristic_mpa: c.characteristic_mpa[i], extrapolated: c.extrapolated[i] })),
-            );
-            const kind = `# band: ${bandStatement(band, coverage, confidence)}\n`;
-            process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}\n${kind}` + toCsv(rows));
-          } else {
-            for (const c of r.curves) {
-              process.stdout.write(
-                `${Object.entries(c.group).map(([k, v]) => `${k}=${v}`).join(' ')}: n=${c.n}, ${c.band} band, characteristic yield ${c.characteristic_yield_mpa?.toFixed(1) ?? '—'} MPa, valid to plastic strain ${c.valid_to_plastic_strain ?? '—'}${c.extrapolated_from !== null ? `, extrapolated (${c.extrapolation?.law}) from ${c.extrapolated_from}` : ''}\n`,
-              );
-            }
-            process.stdout.write(`\n${DESIGN_CAUTION}\n`);
-          }
+          for (const s of r.skipped) log(`  left out ${groupLabel(s.group)}: ${s.reason}`);
+          if (typeof o.out === 'string') log(`curves: wrote ${writeCurveFiles(o.out, r.curves, { feUnit }).length} files under ${o.out}`);
+          const view = grouped(
+            r.curves.flatMap((c) => c.plastic_strain.map((x, i) => ({ group: c.group, row: { plastic_strain: x, median_mpa: c.median_mpa[i], characteristic_mpa: c.characteristic_mpa[i], extrapolated: c.extrapolated[i] } }))),
+          );
+          const text = r.curves
+            .map(
+              (c) =>
+                `${groupLabel(c.group)}: ${c.n} tests, ${c.band} band, characteristic yield ${c.characteristic_yield_mpa?.toFixed(1) ?? '—'} MPa, valid to true plastic strain ${c.valid_to_plastic_strain ?? '—'}${c.extrapolated_from !== null ? `, extrapolated (${c.extrapolation?.law}) from ${c.extrapolated_from}` : ''}\n`,
+            )
+            .join('');
+          print(g, {
+            kind: 'curves',
+            data: r.curves,
+            ...view,
+            tableText: text || '(none)\n',
+            title: 'fractile design curves: median and characteristic true stress [MPa] against true plastic strain [–] per group',
+            notes: { median_mpa: 'median true stress [MPa]', characteristic_mpa: 'characteristic true stress [MPa] (the band line says which bound)', extrapolated: 'true where the point lies past the valid range (fitted law)' },
+            provenance: { curves_run: r.run, band: bandStatement(band, coverage, confidence), grouping: by, filter, catalog: catalogPath(o.catalog, g) },
+          });
         });
       });
   },

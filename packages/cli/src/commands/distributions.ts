@@ -1,6 +1,8 @@
 /** `fractile distributions`: the documented distribution export per group (marginals, correlations, copula, parameter uncertainty). */
 import type { Command } from 'commander';
-import { CliError, globals, log, toCsv, toTable, type CommandModule } from '../context.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { csvTable } from '@fractile/pipeline/export-format';
+import { toTable } from '../output.ts';
 import { addFilterOptions, addPopulationOptions, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
@@ -27,7 +29,7 @@ export const command: CommandModule = {
         if (bootstrap === 1) throw new CliError('--bootstrap must be 0 or at least 2');
         const properties = readProperties(o, NUMERIC_PROPERTIES, DEFAULT_SAMPLE_PROPERTIES)!;
         await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
+          const catalog = await resolveCatalog(store.db, o.catalog, g);
           const r = await runDistributions(store, { by: parseGroupBy(o.by as string), properties, bootstrap, seed, filter: readFilter(o), population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
           log(`distributions: sample run ${r.run}${r.reused ? ' (stored model reused)' : ''}, stats run ${r.stats_run}: ${r.models.length} groups`);
           for (const m of r.models) for (const w of m.warnings) log(`distributions ${JSON.stringify(m.group)}: ${w}`);
@@ -56,7 +58,7 @@ export const command: CommandModule = {
               };
             }),
           );
-          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, sample run ${r.run}\n` + toCsv(rows));
+          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, sample run ${r.run}\n` + csvTable(rows));
           else process.stdout.write(toTable(rows) + `\n${DESIGN_CAUTION}\n`);
         });
       });

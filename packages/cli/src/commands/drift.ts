@@ -1,7 +1,8 @@
 /** `fractile drift`: control charts, change points, capability and supplier comparison (contract JSON). */
 import type { Command } from 'commander';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { addFilterOptions, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { addFilterOptions, catalogPath, checkFilterValues, groupBy, readFilter, readProperties, resolveCatalog, withStore } from '../common-options.ts';
+import { grouped, print } from '../output.ts';
 import { CODE_VERSION } from '../version.ts';
 
 function positive(s: unknown, name: string): number | undefined {
@@ -35,8 +36,11 @@ export const command: CommandModule = {
         .option('--catalog <file>', 'grade catalog for the spec limits and max_fraction_below (default: the catalog of the last reduce)')
         .option('--all-rules', 'every chart signal is an alert (default: CUSUM, Shewhart, change-point and capability rules toward a specification limit)'),
     ).action(async (o: Record<string, unknown>, cmd: Command) => {
-      const { driftContract, parseGroupBy, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+      const { driftContract, runDrift, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
+      const by = await groupBy(o.by);
+      const properties = readProperties(o, NUMERIC_PROPERTIES);
+      const filter = readFilter(o);
       let baseline: { firstN?: number; from?: string; to?: string } | undefined;
       if (typeof o.baseline === 'string') {
         const m = /^(\d{4}-\d{2}-\d{2})\.\.(\d{4}-\d{2}-\d{2})$/.exec(o.baseline);
@@ -65,12 +69,20 @@ export const command: CommandModule = {
         ...(window !== undefined ? { capabilityWindow: window } : {}),
       };
       await withStore(g, async (store) => {
-        const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runDrift(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), monitor, filter: readFilter(o), catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits', unit: unit as (typeof UNITS)[number] });
+        await checkFilterValues(store.db, filter);
+        const catalog = await resolveCatalog(store.db, o.catalog, g);
+        const r = await runDrift(store, { by, properties, monitor, filter, catalog, codeVersion: CODE_VERSION, alertRules: o.allRules ? 'all' : 'toward-limits', unit: unit as (typeof UNITS)[number] });
         const open = r.alerts.filter((a) => a.state === 'open').length;
         log(`drift: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.series.length} series, ${r.alerts.length} alerts (${r.new_alerts} new since the last run, ${open} open), ${r.change_points.length} change points`);
-        const flat = r.alerts.map((a) => ({ id: a.id, state: a.state, new: a.new ? 'new' : '', group: Object.values(a.group).join(' / '), property: a.property, rule: a.rule, chart: a.chart, detected_on: a.detected_on, change_date: a.change_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length }));
-        emit(g.format, driftContract(r), flat);
+        const view = grouped(r.alerts.map((a) => ({ group: a.group, row: { id: a.id, state: a.state, new: a.new, property: a.property, rule: a.rule, chart: a.chart, detected_on: a.detected_on, change_date: a.change_date, magnitude: a.magnitude, unit: a.magnitude_unit, tests: a.tests.length } })));
+        print(g, {
+          kind: 'drift',
+          data: driftContract(r),
+          ...view,
+          title: 'fractile drift alerts: one row per alert of the drift run (the JSON holds series, change points and comparisons)',
+          notes: { detected_on: 'date of the test on which the rule signalled', change_date: 'estimated date the process changed', magnitude: 'estimated shift, in the unit column', tests: 'tests in the alert' },
+          provenance: { drift_run: r.run, grouping: by, filter, catalog: catalogPath(o.catalog, g), alert_rules: o.allRules ? 'all' : 'toward-limits', unit },
+        });
       });
     });
   },

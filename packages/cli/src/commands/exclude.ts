@@ -8,7 +8,8 @@
 import type { Command } from 'commander';
 import { userInfo } from 'node:os';
 import type { ExclusionDecision } from '@fractile/store';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { print } from '../output.ts';
 import { withStore } from '../common-options.ts';
 
 function who(o: Record<string, unknown>): string {
@@ -46,7 +47,7 @@ async function decide(action: 'exclude' | 'include', refs: string[], o: Record<s
     for (const n of notes) log(`${action}: ${n}`);
     log(`${action}: ${decisions.length} decision(s) recorded`);
     const rows = decisions.map((d, i) => ({ id: ids[i], test: `${d.lab}/${d.test_id}`, action: d.action, reason: d.reason, by: d.decided_by }));
-    emit(g.format, { recorded: rows, notes }, rows);
+    print(g, { kind: action, data: { recorded: rows, notes }, rows, title: `fractile ${action}: the decisions recorded`, result: false });
   });
 }
 
@@ -77,7 +78,7 @@ export const command: CommandModule = {
           const { activeExclusions, exclusionHistory } = await import('@fractile/store');
           const rows = o.history ? await exclusionHistory(store.db) : await activeExclusions(store.db);
           const flat = rows.map((r) => ({ test: `${r.lab}/${r.test_id}`, action: r.action, reason: r.reason, by: r.decided_by, at: r.decided_at }));
-          emit(g.format, rows, flat);
+          print(g, { kind: 'exclusions', data: rows, rows: flat, title: o.history ? 'fractile exclusion history: every exclude and include decision' : 'fractile exclusions: the tests left out of every statistic now', result: false });
         });
       });
   },

@@ -6,8 +6,11 @@
  * when anything was rejected.
  */
 import type { Command } from 'commander';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { progressBar } from '../progress.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { print } from '../output.ts';
+import { existsSync } from 'node:fs';
+import { checkManifestFiles } from '../manifest-check.ts';
+import { PROGRESS_MODES, progressBar, type ProgressMode } from '../progress.ts';
 import { resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 import { queueIngest, wholeNumber } from '../queue-target.ts';
@@ -20,7 +23,7 @@ export const command: CommandModule = {
     program
       .command('ingest')
       .description('load tests from manifests (and their curve files) into the database')
-      .argument('<manifest...>', 'manifest CSV files (curve paths are relative to each manifest)')
+      .argument('[manifest...]', 'manifest CSV files (curve paths are relative to each manifest); default: the "manifests" of ./fractile.json')
       .option('--map <file>', 'column map (JSON) for the curve files of these manifests: delimiter, decimal mark, header row, channels and units')
       .option('--dry-run', 'check and classify everything, write nothing')
       .option('--replace', 'a stored test whose content changed is replaced (the old version is kept as history) instead of rejected')
@@ -29,7 +32,7 @@ export const command: CommandModule = {
       .option('--no-reduce', 'store only; leave the per-test reduction to `fractile reduce`')
       .option('--catalog <file>', 'grade catalog (JSON) the tests are reduced with; default: the catalog of the last reduce')
       .option('--no-fits', 'reduce without the Hollomon, Swift, Voce and Ramberg–Osgood fits')
-      .option('--progress <mode>', 'progress on stderr: bar (a terminal only), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
+      .option('--progress <mode>', 'progress on stderr: bar (a bar on a terminal, a line every 10 s elsewhere), lines ("ingest: done/total" after each batch, for logs) or none', 'bar')
       .option('--queue', 'PostgreSQL server: enqueue the manifests in parts for `fractile worker` processes instead of ingesting here')
       .option('--part-rows <n>', 'with --queue: manifest rows per job', '500')
       .option('--watch', 'with --queue: show the progress until every part is done (exit 1 if a job failed)')
@@ -57,20 +60,27 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
         // the exit status is set after the store is closed (closing the embedded engine resets it)
         const workers = o.workers === undefined ? undefined : Number(o.workers);
         if (workers !== undefined && (!Number.isInteger(workers) || workers < 0)) throw new CliError(`--workers must be a whole number ≥ 0, got "${o.workers}"`);
-        if (!['bar', 'lines', 'none'].includes(o.progress)) throw new CliError(`--progress must be bar, lines or none, got "${o.progress}"`);
+        if (!(PROGRESS_MODES as readonly string[]).includes(o.progress)) throw new CliError(`--progress must be ${PROGRESS_MODES.join(', ')}, got "${o.progress}"`);
+        const inputs = manifests.length
+          ? manifests.map((path) => ({ path, map: o.map ?? null }))
+          : (g.project?.manifests ?? []).map((m) => ({ path: m.path, map: o.map ?? m.map }));
+        if (inputs.length === 0) throw new CliError('name the manifests to ingest (`fractile ingest MANIFEST.csv …`), or list them under "manifests" in ./fractile.json');
+        // before any database is opened: a wrong path creates nothing
+        checkManifestFiles(inputs.map((m) => m.path));
+        if (o.map !== undefined && !existsSync(o.map)) throw new CliError(`no column map at ${o.map}`);
         if (o.queue) {
           const partRows = wholeNumber(o.partRows, '--part-rows', 1);
           if (o.dryRun) throw new CliError('--dry-run checks in this process: use it without --queue');
-          return queueIngest(g, manifests, { map: o.map, replace: o.replace, batchSize, partRows, watch: Boolean(o.watch), progress: o.progress });
+          return queueIngest(g, inputs.map((m) => m.path), { map: o.map, replace: o.replace, batchSize, partRows, watch: Boolean(o.watch), progress: o.progress });
         }
         const rejected = await withStore(g, async (store) => {
-          const bar = o.progress === 'bar' ? progressBar('ingest') : { update: (done: number, total: number) => (o.progress === 'lines' ? log(`ingest: ${done}/${total}`) : undefined), stop() {} };
+          const bar = progressBar('ingest', o.progress as ProgressMode);
           const reduction = o.reduce && !o.dryRun
-            ? await startIngestReduction(store, { catalog: await resolveCatalog(store.db, o.catalog), overrides: o.fits ? {} : { fitLaws: false }, codeVersion: CODE_VERSION })
+            ? await startIngestReduction(store, { catalog: await resolveCatalog(store.db, o.catalog, g), overrides: o.fits ? {} : { fitLaws: false }, codeVersion: CODE_VERSION })
             : null;
           let summary: Awaited<ReturnType<typeof ingestManifests>>;
           try {
-            summary = await ingestManifests(store, manifests.map((path) => ({ path, map: o.map ?? null })), {
+            summary = await ingestManifests(store, inputs, {
               dryRun: Boolean(o.dryRun),
               replace: Boolean(o.replace),
               batchSize,
@@ -94,7 +104,7 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
           for (const r of summary.rejected) log(formatRejection(r));
           log(`${summary.dry_run ? 'dry run: would accept' : `run ${summary.run}: accepted`} ${summary.accepted} (${summary.replaced} replacing a stored version), ${summary.duplicates} duplicate, ${summary.rejected.length} rejected`);
           const row = { run: summary.run, accepted: summary.accepted, duplicates: summary.duplicates, replaced: summary.replaced, rejected: summary.rejected.length, dry_run: summary.dry_run };
-          emit(g.format, { ...summary, reduce }, [row]);
+          print(g, { kind: 'ingest', data: { ...summary, reduce }, rows: [row], title: 'fractile ingest run: accepted, duplicate, replaced and rejected records', provenance: { manifests: inputs.map((m) => m.path) }, result: false });
           return summary.rejected.length;
         });
         if (rejected > 0) process.exitCode = EXIT_REJECTED;

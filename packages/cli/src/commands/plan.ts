@@ -1,6 +1,8 @@
 /** `fractile plan`: how the design value is expected to move with more tests (sample-size planning). */
 import type { Command } from 'commander';
-import { CliError, globals, toCsv, toTable, type CommandModule } from '../context.ts';
+import { CliError, globals, type CommandModule } from '../context.ts';
+import { csvTable } from '@fractile/pipeline/export-format';
+import { toTable } from '../output.ts';
 import { addFilterOptions, addPopulationOptions, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, wholeNumbers, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
 
@@ -28,7 +30,7 @@ export const command: CommandModule = {
         if (!Number.isInteger(seed)) throw new CliError('--seed must be a whole number');
         const properties = readProperties(o, NUMERIC_PROPERTIES, DEFAULT_PLAN_PROPERTIES)!;
         await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
+          const catalog = await resolveCatalog(store.db, o.catalog, g);
           const r = await runPlan(store, { by: parseGroupBy(o.by as string), properties, added, replicates, seed, filter: readFilter(o), population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
           if (g.format === 'json') {
             process.stdout.write(JSON.stringify({ caution: DESIGN_CAUTION, code_version: CODE_VERSION, stats_run: r.stats_run, plans: r.plans }, null, 2) + '\n');
@@ -39,7 +41,7 @@ export const command: CommandModule = {
               ? p.plan.rows.map((row) => ({ ...p.group, property: p.property, method: p.plan!.method, added: row.added, n: row.n, k: row.factors.k ?? null, t: row.factors.t ?? null, r: row.factors.r ?? null, expected: row.expected, p05: row.p05, p95: row.p95, gain: row.gain, sd_fresh: row.sd_fresh, population_fractile: p.plan!.population_fractile }))
               : [{ ...p.group, property: p.property, method: null, added: null, n: null, k: null, t: null, r: null, expected: null, p05: null, p95: null, gain: null, sd_fresh: null, population_fractile: null, note: p.note }],
           );
-          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, seed ${seed}, ${replicates} replicates\n` + toCsv(rows));
+          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, seed ${seed}, ${replicates} replicates\n` + csvTable(rows));
           else process.stdout.write(toTable(rows) + `\n${DESIGN_CAUTION}\n`);
         });
       });

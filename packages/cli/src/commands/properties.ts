@@ -1,7 +1,10 @@
 /** `fractile properties`: the per-test property table (contract keys). */
 import type { Command } from 'commander';
-import { emit, globals, type CommandModule } from '../context.ts';
-import { addFilterOptions, readFilter, withStore } from '../common-options.ts';
+import { globals, type CommandModule } from '../context.ts';
+import { addFilterOptions, checkFilterValues, readFilter, withStore } from '../common-options.ts';
+import { print } from '../output.ts';
+
+const TABLE_COLUMNS = ['lab', 'test_id', 'grade', 'supplier', 'tested_on', 'yield_mpa', 'rm_mpa', 'ag_pct', 'a_pct', 'n_value', 'modulus_gpa', 'shape_class', 'flags', 'failure'];
 
 export const command: CommandModule = {
   order: 30,
@@ -13,14 +16,23 @@ export const command: CommandModule = {
     )
       .option('--failed', 'also list tests whose reduction failed, with the reason')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { contractView, loadProperties, PROPERTY_ROW_KEYS } = await import('@fractile/pipeline');
+        const { contractView, loadProperties, propertyCsvRows, PROPERTY_CSV_COLUMNS, PROPERTY_NOTES } = await import('@fractile/pipeline');
         const g = globals(cmd);
+        const filter = readFilter(o);
         await withStore(g, async (store) => {
-          const rows = await loadProperties(store.db, { ...readFilter(o), includeFailed: Boolean(o.failed) }, { asReduced: true });
+          await checkFilterValues(store.db, filter);
+          const rows = await loadProperties(store.db, { ...filter, includeFailed: Boolean(o.failed) }, { asReduced: true });
           const view = rows.map(contractView);
-          const flat = view.map((r) => ({ ...r, flags: (r.flags as string[]).join(' '), failure: r.failure ? `${(r.failure as { code: string }).code}: ${(r.failure as { message: string }).message}` : null }));
-          const columns = [...PROPERTY_ROW_KEYS, 'given', 'failure'];
-          emit(g.format, view, flat, g.format === 'table' ? ['lab', 'test_id', 'grade', 'supplier', 'tested_on', 'yield_mpa', 'rm_mpa', 'ag_pct', 'a_pct', 'n_value', 'modulus_gpa', 'shape_class', 'flags', 'failure'] : columns);
+          print(g, {
+            kind: 'properties',
+            data: view,
+            rows: propertyCsvRows(view),
+            columns: PROPERTY_CSV_COLUMNS,
+            tableColumns: TABLE_COLUMNS,
+            title: 'fractile per-test properties (ISO 6892-1 quantities), one row per test',
+            notes: PROPERTY_NOTES,
+            provenance: { filter, failed_included: Boolean(o.failed) },
+          });
         });
       });
   },

@@ -3,7 +3,8 @@
  * done), the failed jobs with their last error, and retry / cancel. PostgreSQL server only.
  */
 import type { Command } from 'commander';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { print } from '../output.ts';
 import { withStore } from '../common-options.ts';
 import { requireServer } from '../queue-target.ts';
 
@@ -29,7 +30,7 @@ export const command: CommandModule = {
         const { queueStatus } = await import('@fractile/queue');
         await withStore(g, async (store) => {
           const rows = await queueStatus(store);
-          emit(g.format, { kinds: rows }, rows as unknown as Record<string, unknown>[]);
+          print(g, { kind: 'queue', data: { kinds: rows }, rows: rows as unknown as Record<string, unknown>[], title: 'fractile queue: jobs per kind', result: false });
         });
       });
     queue
@@ -43,7 +44,7 @@ export const command: CommandModule = {
         const { failedJobs } = await import('@fractile/queue');
         await withStore(g, async (store) => {
           const rows = await failedJobs(store, kind);
-          emit(g.format, { failed: rows }, rows as unknown as Record<string, unknown>[], ['id', 'kind', 'key', 'attempts', 'last_error']);
+          print(g, { kind: 'queue failed', data: { failed: rows }, rows: rows as unknown as Record<string, unknown>[], columns: ['id', 'kind', 'key', 'attempts', 'last_error'], title: 'fractile queue: failed jobs', result: false });
         });
       });
     queue
@@ -58,7 +59,7 @@ export const command: CommandModule = {
         await withStore(g, async (store) => {
           const n = await retryFailed(store, kind);
           log(`queue: ${n} failed job(s) put back`);
-          emit(g.format, { retried: n }, [{ retried: n }]);
+          print(g, { kind: 'queue retry', data: { retried: n }, rows: [{ retried: n }], title: 'fractile queue: jobs retried', result: false });
         });
       });
     queue
@@ -75,7 +76,7 @@ export const command: CommandModule = {
           const r = await cancelRequest(store, id);
           if (!r.found) throw new CliError(`no queued request ${id}`);
           log(`queue: request ${id} cancelled, ${r.removed} job(s) removed`);
-          emit(g.format, { request: id, removed: r.removed }, [{ request: id, removed: r.removed }]);
+          print(g, { kind: 'queue cancel', data: { request: id, removed: r.removed }, rows: [{ request: id, removed: r.removed }], title: 'fractile queue: request cancelled', result: false });
         });
       });
   },

@@ -1,6 +1,7 @@
 /** `fractile reduce`: per-test properties, true curves and hardening fits from the raw records. */
 import type { Command } from 'commander';
-import { emit, globals, log, type CommandModule } from '../context.ts';
+import { globals, log, type CommandModule } from '../context.ts';
+import { print } from '../output.ts';
 import { progressBar } from '../progress.ts';
 import { resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -30,7 +31,7 @@ export const command: CommandModule = {
         }
         const { runReduce } = await import('@fractile/pipeline');
         await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
+          const catalog = await resolveCatalog(store.db, o.catalog, g);
           const bar = progressBar('reduce');
           const s = await runReduce(store, {
             catalog,
@@ -41,7 +42,8 @@ export const command: CommandModule = {
           });
           bar.stop();
           log(`reduce: run ${s.run}: ${s.reduced} reduced, ${s.given} summary-only, ${s.failed} failed, ${s.unchanged} unchanged (${s.seconds.toFixed(1)} s)`);
-          emit(g.format, s, [s as unknown as Record<string, unknown>]);
+          const { timings, ...counts } = s;
+          print(g, { kind: 'reduce', data: s, rows: [{ ...counts, ...Object.fromEntries(Object.entries(timings).map(([k, v]) => [`${k}_s`, v])) }], title: 'fractile reduce run: tests reduced, summary-only, failed, unchanged', provenance: { reduce_run: s.run }, result: false });
         });
       });
   },

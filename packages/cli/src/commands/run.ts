@@ -1,38 +1,40 @@
 /** `fractile run`: every stage, incrementally, then the report and exports. */
 import type { Command } from 'commander';
-import { emit, globals, log, type CommandModule } from '../context.ts';
-import { resolveCatalog, withStore } from '../common-options.ts';
+import { globals, log, type CommandModule } from '../context.ts';
+import { catalogPath, groupBy, resolveCatalog, withStore } from '../common-options.ts';
+import { print } from '../output.ts';
+import { addExportOptions, readExportOptions, runAllOutput, runCallbacks, workersOption } from '../run-options.ts';
+import { CODE_VERSION } from '../version.ts';
 
 export const command: CommandModule = {
   order: 80,
   register(program: Command) {
-    program
-      .command('run')
-      .description('run every stage incrementally (reduce, stats, curves, drift), then write the report and the CSV/JSON exports')
-      .option('--catalog <file>', 'grade catalog (JSON); default: the catalog of the last reduce')
-      .option('--by <fields>', 'grouping of statistics, curves and report', 'grade')
-      .option('--drift-by <fields>', 'grouping of the drift series', 'supplier,grade')
-      .option('--out <dir>', 'folder for report.html and the exports', 'fractile-out')
-      .option('--workers <n>', 'worker threads for reduce (default: all cores)')
-      .action(async (o: { catalog?: string; by: string; driftBy: string; out: string; workers?: string }, cmd: Command) => {
-        const { parseGroupBy } = await import('@fractile/pipeline');
-        const { runAll } = await import('../run-all.ts');
-        const g = globals(cmd);
-        await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
-          log('fractile run:');
-          const r = await runAll(store, {
-            catalog,
-            catalogSource: o.catalog ?? null,
-            by: parseGroupBy(o.by),
-            driftBy: parseGroupBy(o.driftBy),
-            outDir: o.out,
-            workers: o.workers === undefined ? undefined : Number(o.workers),
-            generatedAt: new Date().toISOString(),
-          });
-          log(`report: ${r.report}`);
-          emit(g.format, r, [{ report: r.report, exports: r.exports.length, alerts: r.alerts }]);
+    addExportOptions(
+      program
+        .command('run')
+        .description('run every stage incrementally (reduce, stats, curves, drift, curve versus certificate), then write the report and the CSV/JSON exports')
+        .option('--catalog <file>', 'grade catalog (JSON); default: ./fractile.json\'s, else the catalog of the last reduce')
+        .option('--by <fields>', 'grouping of statistics, curves and report (each group is also shown split by supplier)', 'grade')
+        .option('--drift-by <fields>', 'grouping of the drift series', 'supplier,grade')
+        .option('--workers <n>', 'worker threads for reduce (default: all cores)'),
+    ).action(async (o: Record<string, unknown>, cmd: Command) => {
+      const g = globals(cmd);
+      const by = await groupBy(o.by);
+      const driftBy = await groupBy(o.driftBy, '--drift-by');
+      const ex = readExportOptions(o, g);
+      const workers = workersOption(o.workers);
+      const { runAll } = await import('@fractile/pipeline');
+      await withStore(g, async (store) => {
+        const catalog = await resolveCatalog(store.db, o.catalog, g);
+        log('fractile run:');
+        const r = await runAll(store, {
+          catalog, catalogSource: catalogPath(o.catalog, g), by, driftBy, outDir: ex.out, workers, generatedAt: g.startedAt, codeVersion: CODE_VERSION,
+          comments: g.comments, feUnit: ex.feUnit,
+          ...runCallbacks(),
         });
+        log(`report: ${r.report}`);
+        print(g, runAllOutput(r));
       });
+    });
   },
 };

@@ -4,8 +4,10 @@
  */
 import type { Command } from 'commander';
 import type { ParameterUncertainty } from '@fractile/stats';
-import { CliError, globals, log, toCsv, toTable, type CommandModule } from '../context.ts';
-import { addFilterOptions, addPopulationOptions, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, withStore } from '../common-options.ts';
+import { groupLabel } from '@fractile/report/group-label';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { addFilterOptions, addPopulationOptions, checkFilterValues, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, withStore } from '../common-options.ts';
+import { grouped, print, toTable } from '../output.ts';
 import { CODE_VERSION } from '../version.ts';
 
 const MODES = ['none', 'asymptotic', 'bootstrap'] as const;
@@ -35,7 +37,7 @@ With parameter uncertainty, each set carries \`parameter_draw\`: the sets of one
 With --curves, CSV is a long table (group fields, sample, plastic_strain, true_stress_mpa) after # lines with the
 caution and the provenance; the last row of each sample is its uniform plastic strain. JSON: docs/random-curves.md.`)
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { DEFAULT_SAMPLE_PROPERTIES, DESIGN_CAUTION, parseGroupBy, runDistributions, sampleGroups, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+        const { DEFAULT_SAMPLE_PROPERTIES, parseGroupBy, runDistributions, sampleGroups, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
         const g = globals(cmd);
         const n = wholeNumber(o.n, '--n', 1000);
         const seed = Number(o.seed);
@@ -52,6 +54,7 @@ caution and the provenance; the last row of each sample is its uniform plastic s
           const { randomCurves, randomCurvesExport, runCurveModels } = await import('@fractile/pipeline');
           const { printRandomCurves } = await import('../random-curves-output.ts');
           await withStore(g, async (store) => {
+            await checkFilterValues(store.db, readFilter(o));
             const stage = await runCurveModels(store, { by: parseGroupBy(o.by as string), model: { varianceFraction: fraction }, filter: readFilter(o), population: readPopulation(o), codeVersion: CODE_VERSION });
             log(`sample --curves: sample run ${stage.run}${stage.reused ? ' (stored model reused)' : ''}: ${stage.models.length} groups`);
             const sets = randomCurves(stage.models, n, seed, !o.keepDecreasing);
@@ -61,23 +64,25 @@ caution and the provenance; the last row of each sample is its uniform plastic s
           return;
         }
         await withStore(g, async (store) => {
-          const catalog = await resolveCatalog(store.db, o.catalog);
-          const models = await runDistributions(store, { by: parseGroupBy(o.by as string), properties, bootstrap, seed, filter: readFilter(o), population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
+          const filter = readFilter(o);
+          await checkFilterValues(store.db, filter);
+          const catalog = await resolveCatalog(store.db, o.catalog, g);
+          const models = await runDistributions(store, { by: parseGroupBy(o.by as string), properties, bootstrap, seed, filter, population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
           const uncertainty = mode === 'none' ? null : { mode: mode as ParameterUncertainty, draws };
           const sets = sampleGroups(models.models, n, seed, uncertainty);
           for (const s of sets) for (const w of s.warnings) log(`sample ${JSON.stringify(s.group)}: ${w}`);
-          if (g.format === 'json') {
-            process.stdout.write(JSON.stringify({ caution: DESIGN_CAUTION, code_version: CODE_VERSION, stats_run: models.stats_run, sample_run: models.run, sets }, null, 2) + '\n');
-            return;
-          }
-          const rows = sets.flatMap((s) => s.rows.map((r, i) => ({ ...s.group, set: i + 1, ...r })));
-          if (g.format === 'csv') {
-            const how = uncertainty ? `, parameter uncertainty ${mode} with ${draws} draws` : '';
-            process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${models.stats_run}, sample run ${models.run}, seed ${seed}${how}\n` + toCsv(rows));
-          } else {
-            process.stdout.write(toTable(sets.map((s) => ({ group: Object.values(s.group).join(' / '), sets: s.n, marginals: s.marginals.map((m) => `${m.property}:${m.model}`).join(' '), parameter_uncertainty: s.parameter_uncertainty ? `${s.parameter_uncertainty.mode} (${s.parameter_uncertainty.draws} draws)` : null, copula_repair: s.copula_repair ? `nearest correlation, largest change ${s.copula_repair.max_change.toFixed(3)}` : null }))));
-            process.stdout.write(`\n${DESIGN_CAUTION}\n`);
-          }
+          const view = grouped(sets.flatMap((s) => s.rows.map((r, i) => ({ group: s.group, row: { set: i + 1, ...r } }))));
+          const summary = toTable(sets.map((s) => ({
+            group: groupLabel(s.group), sets: s.n, marginals: s.marginals.map((m) => `${m.property}:${m.model}`).join(' '),
+            parameter_uncertainty: s.parameter_uncertainty ? `${s.parameter_uncertainty.mode}, ${s.parameter_uncertainty.draws} draws` : 'none',
+            copula_repair: s.copula_repair ? `nearest correlation, largest change ${s.copula_repair.max_change.toFixed(3)}` : 'none',
+          })));
+          const how = uncertainty ? { parameter_uncertainty: mode, parameter_draws: draws } : {};
+          print(g, {
+            kind: 'sample', data: { stats_run: models.stats_run, sample_run: models.run, seed, sets }, ...view, tableText: summary,
+            title: 'fractile random property sets per group (Gaussian copula over the best-fitting marginals)',
+            provenance: { stats_run: models.stats_run, sample_run: models.run, seed, ...how },
+          });
         });
       });
   },

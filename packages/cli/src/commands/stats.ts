@@ -1,9 +1,21 @@
 /** `fractile stats`: population statistics and characteristic values per group (contract JSON). */
 import type { Command } from 'commander';
 import type { Level } from '@fractile/pipeline';
-import { CliError, emit, globals, log, type CommandModule } from '../context.ts';
-import { addFilterOptions, addPopulationOptions, probability, readFilter, readPopulation, readProperties, resolveCatalog, withStore } from '../common-options.ts';
+import { CliError, globals, log, type CommandModule } from '../context.ts';
+import { addFilterOptions, addPopulationOptions, catalogPath, checkFilterValues, groupBy, probability, readFilter, readPopulation, readProperties, resolveCatalog, withStore } from '../common-options.ts';
+import { grouped, print } from '../output.ts';
 import { CODE_VERSION } from '../version.ts';
+
+/** What the stats table's columns mean (CSV comment block). */
+const STATS_NOTES: Readonly<Record<string, string>> = {
+  mean: 'mean in the property\'s unit (the unit is the suffix of its name: _mpa, _pct, _gpa; none: dimensionless)',
+  sd: 'sample standard deviation (n − 1)',
+  cov: 'coefficient of variation sd/mean as a fraction (0.05 = 5 %)',
+  p05: 'empirical 5 % percentile',
+  characteristic: 'the headline characteristic (design) value by the rule in basis',
+  below_min: 'individual tests below the grade\'s specified minimum',
+  left_out: 'values left out (excluded tests, values a flag makes unfit)',
+};
 
 export const command: CommandModule = {
   order: 40,
@@ -22,28 +34,44 @@ export const command: CommandModule = {
     ))
       .addHelpText('after', '\nThe characteristic column is the headline (design) value: by default the lowest of the exact normal, lognormal and Weibull tolerance limits at the headline coverage and confidence (the grade catalog may name the method per property); the method and the rule are in the JSON (headline, headline_rule, headline_basis); the other methods are alternatives.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { parseGroupBy, runAggregate, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+        const { runAggregate, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
+      const by = await groupBy(o.by);
+      const properties = readProperties(o, NUMERIC_PROPERTIES);
+      const filter = readFilter(o);
       const headline: Level = { coverage: probability(o.coverage, '--coverage', 0.95), confidence: probability(o.confidence, '--confidence', 0.75) };
       const others: Level[] = [{ coverage: 0.99, confidence: 0.95 }, { coverage: 0.9, confidence: 0.95 }, { coverage: 0.95, confidence: 0.75 }];
       const levels = [headline, ...others.filter((l) => l.coverage !== headline.coverage || l.confidence !== headline.confidence)];
       const priorV = o.priorV === undefined ? undefined : Number(o.priorV);
       if (priorV !== undefined && !(priorV > 0 && priorV < 1)) throw new CliError('--prior-v must be a number between 0 and 1 (exclusive)');
       await withStore(g, async (store) => {
-        const catalog = await resolveCatalog(store.db, o.catalog);
-        const r = await runAggregate(store, { by: parseGroupBy(o.by as string), properties: readProperties(o, NUMERIC_PROPERTIES), levels, priorV, filter: readFilter(o), population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
+        await checkFilterValues(store.db, filter);
+        const catalog = await resolveCatalog(store.db, o.catalog, g);
+        const r = await runAggregate(store, { by, properties, levels, priorV, filter, population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
         log(`stats: run ${r.run}${r.reused ? ' (stored results reused)' : ''}: ${r.stats.length} group × property rows`);
+        const provenance = { stats_run: r.run, grouping: by, filter, catalog: catalogPath(o.catalog, g) };
         if (o.correlations) {
-          const flat = r.correlations.flatMap((c) => c.properties.flatMap((a, i) => c.properties.map((b, j) => ({ group: Object.values(c.group).join(' / '), a, b, pearson: c.pearson[i][j], spearman: c.spearman[i][j], n: c.n[i][j] }))));
-          emit(g.format, r.correlations, flat);
+          const view = grouped(r.correlations.flatMap((c) => c.properties.flatMap((a, i) => c.properties.map((b, j) => ({ group: c.group, row: { a, b, pearson: c.pearson[i][j], spearman: c.spearman[i][j], n: c.n[i][j] } })))));
+          print(g, { kind: 'correlations', data: r.correlations, ...view, title: 'fractile correlations: Pearson and Spearman coefficients per group and pair of properties', provenance });
           return;
         }
-        const flat = r.stats.map((s) => ({
-          group: Object.values(s.group).join(' / '), property: s.property, n: s.n, mean: s.mean, sd: s.sd, cov: s.cov, min: s.min, p05: s.percentiles.p05, median: s.median,
-          characteristic: s.headline?.value ?? null, method: s.headline?.method ?? null, basis: s.headline_basis,
-          best_fit: s.best_fit, below_min: s.compliance?.n_below ?? null, left_out: s.left_out.n, warnings: s.warnings.join('; '),
-        }));
-        emit(g.format, r.stats, flat);
+        const view = grouped(r.stats.map((s) => ({
+          group: s.group,
+          row: {
+            property: s.property, n: s.n, mean: s.mean, sd: s.sd, cov: s.cov, min: s.min, p05: s.percentiles.p05, median: s.median,
+            characteristic: s.headline?.value ?? null, method: s.headline?.method ?? null, basis: s.headline_basis,
+            best_fit: s.best_fit, below_min: s.compliance?.n_below ?? null, left_out: s.left_out.n, warnings: s.warnings.join('; '),
+          },
+        })));
+        print(g, {
+          kind: 'stats',
+          data: r.stats,
+          ...view,
+          percentColumns: ['cov'],
+          title: 'fractile statistics: per group and property, with the headline characteristic value',
+          notes: STATS_NOTES,
+          provenance,
+        });
       });
     });
   },

@@ -1,7 +1,8 @@
 /** `fractile tests`: what is stored, one row per test (identity, grade, supplier, heat, date, geometry, curve or not). */
 import type { Command } from 'commander';
-import { CliError, emit, globals, type CommandModule } from '../context.ts';
-import { withStore } from '../common-options.ts';
+import { CliError, globals, type CommandModule } from '../context.ts';
+import { checkFilterValues, withStore } from '../common-options.ts';
+import { print } from '../output.ts';
 
 const COLUMNS = ['lab', 'test_id', 'version', 'is_current', 'grade', 'supplier', 'heat', 'tested_on', 'shape', 'diameter_mm', 'thickness_mm', 'width_mm', 'area_mm2', 'gauge_length_mm', 'orientation', 'temperature_c', 'has_curve', 'has_summary'];
 const TABLE_COLUMNS = ['lab', 'test_id', 'grade', 'supplier', 'heat', 'tested_on', 'shape', 'area_mm2', 'gauge_length_mm', 'has_curve'];
@@ -38,8 +39,9 @@ export const command: CommandModule = {
           includeHistory: Boolean(o.history),
         };
         await withStore(g, async (store) => {
+          await checkFilterValues(store.db, filter);
           const rows = (await listTests(store.db, filter)).map((r) => Object.fromEntries(COLUMNS.map((c) => [c, r[c as keyof typeof r]])));
-          emit(g.format, rows, rows, g.format === 'table' ? TABLE_COLUMNS : COLUMNS);
+          print(g, { kind: 'tests', data: rows, rows, columns: COLUMNS, tableColumns: TABLE_COLUMNS, title: 'fractile stored tests: identity, grade, supplier, heat, date, geometry', notes: { area_mm2: 'S0, original cross-section [mm²]', gauge_length_mm: 'L0 [mm]' }, provenance: { filter }, result: false });
         });
       });
   },

@@ -4,11 +4,12 @@
  * JSON with sorted keys), the code version, the run date and the safety caution. The date and
  * version are passed in; nothing here reads the clock.
  */
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import { hashOf, sha256Hex } from '../hash.ts';
 import type { DesignOptions, DesignProvenance, DesignSettings, ProvenanceInput } from './types.ts';
 
-export const DESIGN_CAUTION =
-  'Statistical estimates from the data given. Verify against the governing codes and have a licensed engineer review before use in design.';
+/** The caution of every output: the one text (report/src/caution.ts). */
+export const DESIGN_CAUTION: string = DESIGN_VALUE_CAUTION;
 
 /** SHA-256 of the ids sorted by code unit and joined by "\n". */
 export function testIdsSha256(ids: readonly string[]): string {

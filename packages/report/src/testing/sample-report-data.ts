@@ -156,7 +156,9 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
       provenance: {
         group: key,
         n_tests: curvesPerGroup,
+        test_ids_sha256: 'c0ffee'.repeat(10) + 'c0ff',
         settings_hash: 'f00dfeed',
+        generated_at: '2026-01-15T10:00:00.000Z',
         settings: { grid_points: 61, fractile: 0.05, confidence: 0.75 },
         code_version: '0.1.0',
         caution: 'Statistical estimates from the data given. Verify against the governing codes and have a licensed engineer review before use in design.',

@@ -1,47 +1,50 @@
 /**
- * Assembles the report's input from the stored stage results: statistics and curves per group,
- * drift charts, and the data-quality lists (rejections, failed and flagged tests).
+ * Assembles the report's input (report package `ReportData`) from the stored stage results:
+ * statistics and curves per group with the grade × supplier breakdown, drift charts, the
+ * curve-versus-certificate cross-check, and the data-quality lists (rejections, failed and flagged
+ * tests, exclusions). Typed against the report's types: the stage outputs are those shapes.
  */
-import { sql } from 'kysely';
-import type { Store } from '@fractile/store';
-import {
-  groupRows,
-  loadProperties,
-  NUMERIC_PROPERTIES,
-  type AggregateResult,
-  type Catalog,
-  type CurvesStageResult,
-  type DriftResult,
-  type GroupField,
-  type GroupPlan,
-  type PopulationOptions,
-  hashOf,
-} from '@fractile/pipeline';
-import type { ControlSeries, ReportData, ReportGroup, SampleCurve } from '@fractile/report';
-import { CODE_VERSION } from './version.ts';
+import { listRejections, testInventory, type Store } from '@fractile/store';
+import type { ControlSeries, ReportBreakdown, ReportData, ReportGroup, SampleCurve } from '@fractile/report';
+import type { AggregateResult } from '../aggregate/stage.ts';
+import { groupRows, type GroupField } from '../aggregate/grouping.ts';
+import type { Catalog } from '../catalog.ts';
+import type { CrossCheckResult } from '../crosscheck/crosscheck-stage.ts';
+import type { CurvesStageResult } from '../design/stage.ts';
+import { hashOf } from '../hash.ts';
+import type { DriftResult } from '../monitor/stage.ts';
+import type { PopulationOptions } from '../population.ts';
+import type { GroupPlan } from '../planning/plan-groups.ts';
+import { loadProperties, NUMERIC_PROPERTIES } from '../properties.ts';
 
 export interface ReportInputs {
   by: GroupField[];
   aggregate: AggregateResult;
+  /** the statistics of each group split by supplier (absent: no breakdown) */
+  breakdown?: AggregateResult | null;
   curves: CurvesStageResult;
   drift: DriftResult | null;
+  crosscheck?: CrossCheckResult | null;
   catalog: Catalog | null;
   catalogSource: string | null;
   /** the population options the stages ran with (default: excluded tests and flagged values left out) */
   population?: PopulationOptions;
   reduceHash: string | null;
+  codeVersion: string;
   generatedAt: string;
   title?: string;
+  /** the complete lists written beside the report, relative to it */
+  lists?: ReportData['lists'];
   /** sample-size planning per group and property (pipeline runPlan) */
   planning?: GroupPlan[];
 }
 
 /** Flags that say how a value was obtained rather than that something needs a look. */
-const INFORMATIONAL_FLAGS = new Set(['given', 'past_max_force_ignored', 'n_window_reduced']);
+export const INFORMATIONAL_FLAGS: ReadonlySet<string> = new Set(['given', 'past_max_force_ignored', 'n_window_reduced']);
 
-const keyOf = (g: Record<string, string>) => JSON.stringify(Object.entries(g).sort());
+const keyOf = (g: Readonly<Record<string, string>>) => JSON.stringify(Object.entries(g).sort());
 
-function sampleCurve(grid: number[], t: { test_id: string; stress_mpa: (number | null)[] }): SampleCurve {
+function sampleCurve(grid: readonly number[], t: { test_id: string; stress_mpa: (number | null)[] }): SampleCurve {
   const x: number[] = [];
   const y: number[] = [];
   t.stress_mpa.forEach((v, i) => {
@@ -74,6 +77,29 @@ function controlSeries(s: DriftResult['series'][number], alerted: boolean): Cont
   };
 }
 
+/** The supplier rows of each group of `inp.by`, from the finer statistics. */
+function breakdowns(inp: ReportInputs): Map<string, ReportBreakdown> {
+  type Row = { key: Readonly<Record<string, string>>; stats: AggregateResult['stats'] };
+  const out = new Map<string, { by: string[]; rows: Row[] }>();
+  if (!inp.breakdown) return out;
+  const extra = Object.keys(inp.breakdown.stats[0]?.group ?? {}).filter((k) => !(inp.by as string[]).includes(k));
+  const rows = new Map<string, Row>();
+  for (const s of inp.breakdown.stats) {
+    const parent = Object.fromEntries(inp.by.map((k) => [k, s.group[k]]));
+    const pk = keyOf(parent);
+    if (!out.has(pk)) out.set(pk, { by: extra, rows: [] });
+    const rk = keyOf(s.group);
+    let row = rows.get(rk);
+    if (!row) {
+      row = { key: Object.fromEntries(extra.map((k) => [k, s.group[k]])), stats: [] };
+      rows.set(rk, row);
+      out.get(pk)!.rows.push(row);
+    }
+    row.stats.push(s);
+  }
+  return out;
+}
+
 export async function assembleReport(store: Store, inp: ReportInputs): Promise<ReportData> {
   const db = store.db;
   const all = await loadProperties(db, { includeFailed: true }, { asReduced: true });
@@ -83,6 +109,7 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
   const valuesByGroup = new Map(groups.map((g) => [keyOf(g.key), g]));
   const curvesByGroup = new Map(inp.curves.curves.map((c) => [keyOf(c.group), c]));
   const samplesByGroup = new Map(inp.curves.samples.map((s) => [keyOf(s.group), s.tests]));
+  const split = breakdowns(inp);
   const statsByGroup = new Map<string, AggregateResult['stats']>();
   for (const s of inp.aggregate.stats) {
     const k = keyOf(s.group);
@@ -95,9 +122,10 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     const curve = curvesByGroup.get(k) ?? null;
     reportGroups.push({
       key: stats[0].group,
-      curves: curve && curve.valid_to_plastic_strain !== null ? { ...curve, valid_to_plastic_strain: curve.valid_to_plastic_strain, idealized: (curve.idealized ?? {}) as never, provenance: curve.provenance as never } : null,
+      curves: curve && curve.valid_to_plastic_strain !== null ? curve : null,
       sample_curves: (samplesByGroup.get(k) ?? []).map((t) => sampleCurve(inp.curves.grid, t)),
-      properties: stats.map((s) => ({ stats: s as never, values: (vg?.columns[s.property] ?? []).filter((v) => Number.isFinite(v)) })),
+      properties: stats.map((s) => ({ stats: s, values: (vg?.columns[s.property] ?? []).filter((v) => Number.isFinite(v)) })),
+      breakdown: split.get(k) ?? null,
     });
   }
 
@@ -106,18 +134,15 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
   const series: ControlSeries[] = (inp.drift?.series ?? []).map((s) => controlSeries(s, alerted.has(keyOf(s.group) + s.property)));
   series.sort((a, b) => Number(alerted.has(keyOf(b.group) + b.property)) - Number(alerted.has(keyOf(a.group) + a.property)));
 
-  const rejections = await db.selectFrom('rejections').select(['file', 'line', 'col', 'code', 'message']).orderBy('id').execute();
-  const counts = await sql<{ tests: string; curves: string; summary_only: string }>`
-    select count(*) as tests, count(c.test_row_id) as curves, count(*) filter (where c.test_row_id is null) as summary_only
-    from tests t left join curves c on c.test_row_id = t.id where t.is_current`.execute(db);
+  const rejections = await listRejections(db);
+  const inventory = await testInventory(db);
   const failed = all.filter((r) => r.failure);
   const flagged = all.filter((r) => !r.failure && r.flags.some((f) => !INFORMATIONAL_FLAGS.has(f)));
-  const c = counts.rows[0];
   return {
     meta: {
       title: inp.title ?? 'fractile — tensile test population report',
       generated_at: inp.generatedAt,
-      code_version: CODE_VERSION,
+      code_version: inp.codeVersion,
       database: { engine: store.engine, target: store.engine === 'postgres' ? store.target.replace(/\/\/[^@/]*@/, '//…@') : store.target },
       settings_hashes: {
         ...(inp.reduceHash ? { reduce: inp.reduceHash } : {}),
@@ -128,12 +153,10 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
       catalog: {
         source: inp.catalogSource,
         hash: inp.catalog ? hashOf(inp.catalog) : null,
-        grades: Object.entries(inp.catalog?.grades ?? {}).map(([grade, e]) => ({ grade, family: e.family, yield_definition: e.yield_definition, spec: e.spec as Record<string, number | null> })),
+        grades: Object.entries(inp.catalog?.grades ?? {}).map(([grade, e]) => ({ grade, family: e.family, yield_definition: e.yield_definition, spec: { ...e.spec } })),
       },
       counts: {
-        tests: Number(c.tests),
-        curves: Number(c.curves),
-        summary_only: Number(c.summary_only),
+        ...inventory,
         rejected: rejections.length,
         failed: failed.length,
         flagged: flagged.length,
@@ -144,11 +167,13 @@ export async function assembleReport(store: Store, inp: ReportInputs): Promise<R
     groups: reportGroups,
     planning: inp.planning,
     drift: inp.drift ? { result: { alerts: inp.drift.alerts, change_points: inp.drift.change_points, comparisons: inp.drift.comparisons }, series, new_alerts: inp.drift.new_alerts } : null,
+    crosscheck: inp.crosscheck ?? null,
     quality: {
-      rejections: rejections.map((r) => ({ file: r.file, line: r.line, column: r.col, code: r.code, message: r.message })),
+      rejections,
       failed: failed.map((r) => ({ lab: r.lab, test_id: r.test_id, code: r.failure!.code, message: r.failure!.message })),
       flagged: flagged.map((r) => ({ lab: r.lab, test_id: r.test_id, flags: r.flags.filter((f) => !INFORMATIONAL_FLAGS.has(f)) })),
       exclusions: inp.aggregate.exclusions.map((e) => ({ lab: e.lab, test_id: e.test_id, reason: e.reason, decided_by: e.decided_by, decided_at: e.decided_at })),
     },
+    ...(inp.lists ? { lists: inp.lists } : {}),
   };
 }
