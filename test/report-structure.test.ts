@@ -158,17 +158,22 @@ describe('stage objects shown as text', () => {
   it('lists nested idealizations readably and does not repeat the caution from provenance', async () => {
     const one = sampleReportData({ groups: 1, properties: 1, controlCharts: 0 });
     const page = await renderReport(one);
+    // each idealization in the trade's words and units (names as commonly used in practice)
+    expect(page).toContain('<h4>Bilinear (linear hardening)</h4>');
     expect(page).toContain(
-      '<dt>bilinear</dt><dd><span class="kv-line">e_mpa 206000</span><span class="kv-line">yield_mpa 355</span><span class="kv-line">hardening_modulus_mpa 1480.5</span><span class="kv-line">tangent_modulus_mpa 1469.9</span><span class="kv-line">rmse_mpa 6.1</span></dd>',
+      '<dl class="kv"><dt>Yield stress</dt><dd>355 MPa</dd><dt>Hardening modulus (vs true plastic strain)</dt><dd>1481 MPa</dd><dt>Tangent modulus (vs total strain)</dt><dd>1470 MPa</dd><dt>RMS deviation from the curve</dt><dd>6.1 MPa</dd></dl>',
     );
-    expect(page).toContain('<dt>ramberg_osgood</dt><dd>–</dd>');
-    // 12 grid values of the multilinear set, shown as count and range; flags as a count
-    expect(page).toMatch(
-      /<dt>multilinear<\/dt><dd><span class="kv-line">plastic_strain 12 values, 0 … 0\.0366667<\/span><span class="kv-line">stress_mpa 12 values, [0-9.]+ … [0-9.]+<\/span><span class="kv-line">extrapolated 12 flags, 0 set<\/span><\/dd>/,
-    );
-    expect(page).toContain('<dt>settings</dt><dd><span class="kv-line">grid_points 61</span><span class="kv-line">fractile 0.05</span><span class="kv-line">confidence 0.75</span></dd>');
-    // a flat string map (the group) stays on one line
-    expect(page).toMatch(/<dt>group<\/dt><dd>grade G355 · supplier [^<]*<\/dd>/);
+    expect(page).toContain('<dt>Modulus of elasticity E</dt><dd>206000 MPa</dd>');
+    // no Ramberg–Osgood fit in the fixture: no empty heading for it
+    expect(page).not.toContain('Ramberg–Osgood, ε');
+    // the 12 multilinear points as a table, not a list of numbers
+    const panel = page.slice(page.indexOf('<h4>Multilinear points</h4>'), page.indexOf('</table>', page.indexOf('<h4>Multilinear points</h4>')));
+    expect(count(panel, '<tr><td class="num">')).toBe(12);
+    expect(panel).toContain('<tr><td class="num">0</td>');
+    expect(panel).toContain('<tr><td class="num">0.03667</td>');
+    // provenance as labelled lines, settings on one line
+    expect(page).toContain('<dt>Settings</dt><dd>grid points 61 · fractile 0.05 · confidence 0.75</dd>');
+    expect(page).toContain('<dt>Tests</dt><dd>12</dd>');
     expect(page).not.toContain('<dt>caution</dt>');
     expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
     expect(page).toContain('extrapolated by the fitted swift law, not measured');

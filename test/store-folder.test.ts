@@ -90,7 +90,14 @@ describe('embedded folder errors', () => {
     const e = await openStore(path.join(file, 'db')).then(() => null, (x: unknown) => x);
     expect(e).toMatchObject({ name: 'StoreError', code: 'database_unavailable' });
     expect((e as Error).message).toMatch(/cannot create the database folder .*ENOTDIR/);
-    const cli = spawnSync(process.execPath, [bin, 'tests', '--db', path.join(file, 'db')], { encoding: 'utf8' });
+    // a read-only command refuses a missing database (exit 2) and creates nothing
+    const read = spawnSync(process.execPath, [bin, 'tests', '--db', path.join(file, 'db')], { encoding: 'utf8' });
+    expect(read.status).toBe(2);
+    expect(read.stderr).toMatch(/^fractile: there is no database at /);
+    // ingest would create it, and says plainly why it cannot
+    const manifest = path.join(root, 'cannot-create.csv');
+    writeFileSync(manifest, 'test_id,grade,supplier,tested_on,yield[MPa],yield_definition,tensile[MPa]\nC1,G1,Mill,2024-01-02,355,rp0.2,490\n');
+    const cli = spawnSync(process.execPath, [bin, 'ingest', manifest, '--db', path.join(file, 'db'), '--progress', 'none'], { encoding: 'utf8' });
     expect(cli.status).toBe(1);
     expect(cli.stderr.trim().split('\n')).toHaveLength(1); // one line, no stack trace
     expect(cli.stderr).toMatch(/^fractile: cannot create the database folder/);

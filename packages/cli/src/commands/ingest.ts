@@ -13,7 +13,7 @@ import { checkManifestFiles } from '../manifest-check.ts';
 import { PROGRESS_MODES, progressBar, type ProgressMode } from '../progress.ts';
 import { resolveCatalog, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
-import { queueIngest, wholeNumber } from '../queue-target.ts';
+import { queueIngest, requireServer, wholeNumber } from '../queue-target.ts';
 
 export const EXIT_REJECTED = 3;
 
@@ -65,6 +65,8 @@ Exit status: 0 all accepted or duplicate, ${EXIT_REJECTED} when anything was rej
           ? manifests.map((path) => ({ path, map: o.map ?? null }))
           : (g.project?.manifests ?? []).map((m) => ({ path: m.path, map: o.map ?? m.map }));
         if (inputs.length === 0) throw new CliError('name the manifests to ingest (`fractile ingest MANIFEST.csv …`), or list them under "manifests" in ./fractile.json');
+        // the queue lives on a server only: say so before looking at the files
+        if (o.queue) await requireServer(g, '--queue');
         // before any database is opened: a wrong path creates nothing
         checkManifestFiles(inputs.map((m) => m.path));
         if (o.map !== undefined && !existsSync(o.map)) throw new CliError(`no column map at ${o.map}`);
