@@ -43,6 +43,14 @@ describe('reportFailure', () => {
     expect(printed(sys)).toEqual({ code: 1, text: "fractile: EACCES: permission denied, open 'out/report.html'\n" });
   });
 
+  it('says a connection lost under a command is lost (node-postgres messages), exit 1, not a defect', () => {
+    for (const m of ['Connection terminated unexpectedly', 'Client has encountered a connection error and is not queryable']) {
+      const out = printed(new Error(m));
+      expect(out.code).toBe(1);
+      expect(out.text).toBe(`fractile: the connection to the database server was lost (${m}); the server rolls back what was not committed: run the command again\n`);
+    }
+  });
+
   it('prints a thrown object that is not an Error as its JSON, not [object Object]', () => {
     expect(printed({ reason: 'closed' }).text).toMatch(/^fractile: internal error: \{"reason":"closed"\}\n/);
   });

@@ -123,6 +123,9 @@ const CONNECTION_CODES: Record<string, string> = {
   '28000': 'the server refused the user',
 };
 
+/** node-postgres's messages for a connection that ended under a client (a server restart, a cut network). */
+const LOST_CONNECTION = /^(Connection terminated|Client has encountered a connection error)/;
+
 /** The first connection fault in an error and its causes (pg wraps them; kysely's migrator too). */
 function connectionFault(err: unknown): { code: string; message: string } | null {
   for (let e = err as { code?: unknown; cause?: unknown; errors?: unknown[]; message?: string } | undefined, depth = 0; e && depth < 5; depth++) {
@@ -162,6 +165,8 @@ export function reportFailure(err: unknown, debug = false): number {
     if (debug && err instanceof Error && err.stack) log(err.stack);
     return code;
   };
+  if (typeof e.message === 'string' && LOST_CONNECTION.test(e.message))
+    return plain(`the connection to the database server was lost (${e.message}); the server rolls back what was not committed: run the command again`, 1);
   if (e.name === 'StoreError') return plain(String(e.message), e.code === 'database_busy' ? EXIT_BUSY : 1);
   if (e.severity !== undefined) return plain(`the database reported an error: ${e.message}${typeof e.code === 'string' ? ` (SQLSTATE ${e.code})` : ''}`, 1);
   if (e.syscall !== undefined || e.name === 'MigrationError' || e.code === 'migration_failed') return plain(String(e.message), 1);

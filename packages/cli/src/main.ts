@@ -29,11 +29,17 @@ export async function buildProgram(): Promise<Command> {
 }
 
 async function main(): Promise<void> {
+  const debug = process.argv.includes('--debug');
+  // an error nobody awaited (from a library's background work, e.g. a connection the server
+  // ended): Node would print its stack and exit 1; we print it as every other failure and exit
+  const fatal = (err: unknown) => process.exit(reportFailure(err, debug) || 1);
+  process.on('unhandledRejection', fatal);
+  process.on('uncaughtException', fatal);
   const program = await buildProgram();
   try {
     await program.parseAsync(process.argv);
   } catch (err) {
-    process.exitCode = reportFailure(err, process.argv.includes('--debug'));
+    process.exitCode = reportFailure(err, debug);
   }
 }
 

@@ -9,10 +9,11 @@
  */
 import { EventEmitter } from 'node:events';
 import { run, type Runner, type Task, type WorkerEvents } from 'graphile-worker';
-import type { Store } from '@fractile/store';
+import { type Store, StoreError } from '@fractile/store';
 import { handleIngest, handleReduce, handleStages, type HandlerContext } from './job-handlers.ts';
 import type { IngestJob, ReduceJob, StagesJob } from './job-kinds.ts';
 import { prepareQueue, queueOptions } from './queue-schema.ts';
+import pg from 'pg';
 import { openLiveness } from './worker-liveness.ts';
 
 export interface WorkerOptions {
@@ -42,7 +43,7 @@ export async function startWorker(store: Store, opts: WorkerOptions): Promise<Ru
   let lost: ((e: Error) => void) | null = null;
   const lostPromise = new Promise<never>((_, reject) => (lost = reject));
   lostPromise.catch(() => {});
-  const liveness = await openLiveness(url, (e) => lost?.(new Error(`lost the connection that marks this worker alive (${e.message}); its jobs will be retried by other workers`)));
+  const liveness = await openLiveness(url, (e) => lost?.(new StoreError('database_unavailable', `lost the connection that marks this worker alive (${e.message}); this worker stops, its jobs will be retried by other workers`, { cause: e })));
   const events: WorkerEvents = new EventEmitter();
   const holds: Promise<void>[] = [];
   events.on('worker:create', ({ worker }) => {
@@ -58,7 +59,21 @@ export async function startWorker(store: Store, opts: WorkerOptions): Promise<Ru
     reduce: (p, h) => handleReduce(ctx, p as ReduceJob, h),
     stages: (p) => handleStages(ctx, p as StagesJob),
   };
-  const runner: Runner = await run({ ...queueOptions(url), maxPoolSize: concurrency + 2, concurrency, noHandleSignals: true, pollInterval: opts.pollMs ?? 1000, taskList, events });
+  // our own pool, so that a connection the server ends (a restart) stops the worker with a reason
+  // instead of an 'error' event nobody listens to once graphile-worker has begun to shut down
+  const pool = new pg.Pool({ connectionString: url, max: concurrency + 2 });
+  const onLostConnection = (e: Error) => lost?.(new StoreError('database_unavailable', `lost a connection to the server (${e.message}); this worker stops, its jobs will be retried by other workers`, { cause: e }));
+  pool.on('error', onLostConnection);
+  // a checked-out client is not heard by the pool: each client listens for its whole life
+  pool.on('connect', (client) => client.on('error', onLostConnection));
+  let runner: Runner;
+  try {
+    runner = await run({ ...queueOptions(url), connectionString: undefined, pgPool: pool, concurrency, noHandleSignals: true, pollInterval: opts.pollMs ?? 1000, taskList, events });
+  } catch (e) {
+    await pool.end().catch(() => {});
+    await liveness.close();
+    throw e;
+  }
   await Promise.all(holds);
   const timer = setInterval(reap, Math.max(0.2, opts.reapSeconds ?? 2) * 1000);
   let stopping: Promise<void> | null = null;
@@ -66,6 +81,7 @@ export async function startWorker(store: Store, opts: WorkerOptions): Promise<Ru
     (stopping ??= (async () => {
       clearInterval(timer);
       await runner.stop().catch(() => {});
+      await pool.end().catch(() => {});
       await liveness.close();
     })());
   const done = Promise.race([runner.promise, lostPromise]).then(

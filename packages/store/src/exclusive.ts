@@ -41,13 +41,21 @@ export function serverExclusive(url: string): { exclusive: Exclusive; close(): P
   let client: Promise<pg.Client> | null = null;
   const local = inProcessExclusive();
   const connect = () => {
-    client ??= (async () => {
+    if (client) return client;
+    const made = (async () => {
       const c = new pg.Client({ connectionString: url });
-      c.on('error', () => {});
+      // a connection the server ended: its locks are gone with it; the next section connects anew
+      c.on('error', () => {
+        if (client === made) client = null;
+      });
       await c.connect();
       return c;
     })();
-    return client;
+    client = made;
+    made.catch(() => {
+      if (client === made) client = null;
+    });
+    return made;
   };
   const exclusive: Exclusive = (name, fn) =>
     local(name, async () => {

@@ -263,9 +263,12 @@ async function copyOutOnClient(client: pg.PoolClient, query: string, types: read
 
 async function openServer(target: string, opts: OpenStoreOptions): Promise<Store> {
   const pool = new pg.Pool({ connectionString: target, types: pgTypes, max: 4 });
-  // An idle pooled connection that the server ends (restart, dropped database) must not bring
-  // down the process: the pool discards it and the next query opens a new one.
+  // A pooled connection that the server ends (restart, dropped database) must not bring down the
+  // process: idle, the pool discards it; checked out, the pool no longer listens to it, so each
+  // client gets a listener of its own for its life (the caller's query fails with the error, and
+  // the pool drops the client when it comes back unusable).
   pool.on('error', () => {});
+  pool.on('connect', (client) => client.on('error', () => {}));
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool }) });
   const current = new AsyncLocalStorage<pg.PoolClient>();
   const locks = serverExclusive(target);

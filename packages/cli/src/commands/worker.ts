@@ -24,6 +24,24 @@ export const command: CommandModule = {
         await requireServer(g, '`fractile worker`');
         const concurrency = wholeNumber(o.concurrency, '--concurrency', 1);
         const threads = wholeNumber(o.threads, '--threads', 0);
+        // the queue engine's log keeps the stacks of failed jobs only when asked
+        if (g.debug && !process.env.FRACTILE_QUEUE_LOG) process.env.FRACTILE_QUEUE_LOG = 'debug';
+        // graphile-worker also prints a failed worker loop's stack with console.trace (besides its
+        // log line, which says the same): kept for --debug only
+        if (!g.debug) console.trace = () => {};
+        // An error nobody awaits, thrown by the queue engine's background work while its
+        // connections are being ended (seen: its notify listener releasing a client twice after
+        // the server ended the session), stops this worker like a lost connection does.
+        const engineFault = (err: unknown) => {
+          const text = err instanceof Error ? err.message : String(err);
+          log(`fractile: the job queue engine failed in the background (${text}), as it does when the server ends its connections; this worker stops, its jobs will be retried by other workers`);
+          if (g.debug && err instanceof Error && err.stack) log(err.stack);
+          process.exit(1);
+        };
+        process.removeAllListeners('unhandledRejection');
+        process.removeAllListeners('uncaughtException');
+        process.on('unhandledRejection', engineFault);
+        process.on('uncaughtException', engineFault);
         const { startWorker } = await import('@fractile/queue');
         await withStore(g, async (store) => {
           const w = await startWorker(store, { concurrency, threads, codeVersion: CODE_VERSION, onEvent: (m) => log(`worker: ${m}`) });
