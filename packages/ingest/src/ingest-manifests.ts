@@ -14,9 +14,11 @@
  * worker that parsed a curve reduces it while its channels are in memory, and the per-test row is
  * written in the batch's transaction.
  *
- * The whole run holds the database's `ingest` section (store `exclusive`): a second ingest waits
- * for the first, and runs a killed process left `running` are marked `abandoned` when the next
- * one starts.
+ * Ingests run side by side: each holds the database's `ingest` section shared for its run
+ * (store `sections`), and each batch locks the identities it writes (test-batch.ts), so two
+ * ingests of the same test take turns on it and ingests of different tests do not wait. Runs a
+ * killed process left `running` are marked `abandoned` by the next ingest that finds no other
+ * one running.
  */
 import { readFileSync } from 'node:fs';
 import type { Store } from '@fractile/store';
@@ -117,8 +119,12 @@ export async function ingestManifests(store: Store, manifests: ManifestInput[], 
 
   try {
     if (dryRun) return await ingestAll();
-    return await store.exclusive('ingest', async () => {
+    // ingests run side by side (their batches lock the identities they write); a run left
+    // `running` is marked abandoned only by an ingest that finds no other one running
+    await store.sections.ifAlone('ingest', async () => {
       await abandonRunningIngests(store.db);
+    });
+    return await store.sections.shared('ingest', async () => {
       const settings = { manifests: inputs.settings, replace: opts.replace ?? false, batch_size: batchSize, ...(lines ? { lines } : {}) };
       sum.run = await startIngestRun(store.db, settings, opts.codeVersion ?? INGEST_VERSION);
       try {

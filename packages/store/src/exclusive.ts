@@ -31,13 +31,67 @@ export function inProcessExclusive(): Exclusive {
   };
 }
 
+/**
+ * Shared holds of a name, for work that may run side by side but must know when nobody runs it:
+ * `shared(name, fn)` runs `fn` holding `name` shared (any number at once; it waits while an
+ * `ifAlone` holder runs); `ifAlone(name, fn)` runs `fn` only when nobody holds `name` at this
+ * moment, holding it exclusively meanwhile, and otherwise returns false at once. A name is used
+ * either this way or with `exclusive`, never both.
+ */
+export interface SharedSections {
+  shared<T>(name: string, fn: () => Promise<T>): Promise<T>;
+  ifAlone(name: string, fn: () => Promise<void>): Promise<boolean>;
+}
+
+/** Shared sections within this process; `remote` adds the same hold across processes (a server). */
+export function inProcessShared(remote?: { takeShared(name: string): Promise<() => Promise<void>>; tryAlone(name: string): Promise<(() => Promise<void>) | null> }): SharedSections {
+  const holders = new Map<string, number>();
+  const alone = new Map<string, Promise<void>>();
+  return {
+    async shared(name, fn) {
+      for (let a = alone.get(name); a; a = alone.get(name)) await a.catch(() => {});
+      holders.set(name, (holders.get(name) ?? 0) + 1);
+      try {
+        const release = remote ? await remote.takeShared(name) : null;
+        try {
+          return await fn();
+        } finally {
+          await release?.();
+        }
+      } finally {
+        const n = (holders.get(name) ?? 1) - 1;
+        if (n === 0) holders.delete(name);
+        else holders.set(name, n);
+      }
+    },
+    async ifAlone(name, fn) {
+      if ((holders.get(name) ?? 0) > 0 || alone.has(name)) return false;
+      let done = () => {};
+      alone.set(name, new Promise<void>((r) => (done = r)));
+      try {
+        const release = remote ? await remote.tryAlone(name) : async () => {};
+        if (!release) return false;
+        try {
+          await fn();
+          return true;
+        } finally {
+          await release();
+        }
+      } finally {
+        alone.delete(name);
+        done();
+      }
+    },
+  };
+}
+
 /** The advisory-lock key of a name: a signed 64-bit integer, as text. */
 export function lockKey(name: string): string {
   return createHash('sha256').update(name).digest().readBigInt64BE(0).toString();
 }
 
 /** Exclusive sections across processes on the server at `url`; `close` ends its connection. */
-export function serverExclusive(url: string): { exclusive: Exclusive; close(): Promise<void> } {
+export function serverExclusive(url: string): { exclusive: Exclusive; sections: SharedSections; close(): Promise<void> } {
   let client: Promise<pg.Client> | null = null;
   const local = inProcessExclusive();
   const connect = () => {
@@ -72,8 +126,34 @@ export function serverExclusive(url: string): { exclusive: Exclusive; close(): P
         await c.query('select pg_advisory_unlock($1::int8)', [key]).catch(() => {});
       }
     });
+  // shared holds: pg_try_advisory_lock_shared polled like the exclusive one; "alone": one try of
+  // the exclusive lock, which the server grants only when no session holds the key in any mode
+  const sections = inProcessShared({
+    async takeShared(name) {
+      const c = await connect();
+      const key = lockKey(name);
+      for (;;) {
+        const r = await c.query<{ ok: boolean }>('select pg_try_advisory_lock_shared($1::int8) as ok', [key]);
+        if (r.rows[0].ok) break;
+        await new Promise((res) => setTimeout(res, 200));
+      }
+      return async () => {
+        await c.query('select pg_advisory_unlock_shared($1::int8)', [key]).catch(() => {});
+      };
+    },
+    async tryAlone(name) {
+      const c = await connect();
+      const key = lockKey(name);
+      const r = await c.query<{ ok: boolean }>('select pg_try_advisory_lock($1::int8) as ok', [key]);
+      if (!r.rows[0].ok) return null;
+      return async () => {
+        await c.query('select pg_advisory_unlock($1::int8)', [key]).catch(() => {});
+      };
+    },
+  });
   return {
     exclusive,
+    sections,
     async close() {
       if (client) await (await client.catch(() => null))?.end().catch(() => {});
       client = null;

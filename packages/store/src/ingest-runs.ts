@@ -1,9 +1,9 @@
 /**
  * Ingest run rows: started before the first batch, finished with the counts, marked failed when
- * the run ends in an error. A run left `running` by a process that was killed is marked
- * `abandoned` when the next ingest starts: that one holds the database's ingest section
- * (`store.exclusive('ingest', …)`, which every ingest takes, and which an embedded folder grants
- * to one process at all), so no other ingest can still be running then.
+ * the run ends in an error. Every ingest holds the database's ingest section shared
+ * (`store.sections.shared('ingest', …)`) while it runs; a run left `running` by a process that
+ * was killed is marked `abandoned` by the next ingest that finds the section free
+ * (`store.sections.ifAlone`), so that no ingest still running can be marked.
  */
 import type { Kysely } from 'kysely';
 import type { Store } from './open-store.ts';
@@ -17,7 +17,7 @@ export interface IngestCounts {
   rejected: number;
 }
 
-/** Marks runs still `running` as abandoned; returns their ids. Call only inside the ingest section. */
+/** Marks runs still `running` as abandoned; returns their ids. Call only when no ingest runs (see above). */
 export async function abandonRunningIngests(db: Kysely<Database>): Promise<number[]> {
   const rows = await db.updateTable('ingest_runs').set({ status: 'abandoned' }).where('status', '=', 'running').returning('id').execute();
   return rows.map((r) => Number(r.id));

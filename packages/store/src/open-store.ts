@@ -28,7 +28,7 @@ import { from as copyFrom, to as copyTo } from 'pg-copy-streams';
 import { BinaryCopyEncoder, decodeBinaryCopy, type BinaryType, type BinaryValue, type DecodedValue } from './copy-binary.ts';
 import { copyLine } from './copy-text.ts';
 import { prepareFolder } from './embedded-folder.ts';
-import { inProcessExclusive, serverExclusive, type Exclusive } from './exclusive.ts';
+import { inProcessExclusive, inProcessShared, serverExclusive, type Exclusive, type SharedSections } from './exclusive.ts';
 import { migrateToLatest } from './migrate.ts';
 import { installFsync, PGLITE_DURABLE_PARAMS } from './pglite-durability.ts';
 import type { Database } from './schema.ts';
@@ -53,6 +53,8 @@ export interface Store {
   transaction<T>(fn: (trx: Kysely<Database>) => Promise<T>): Promise<T>;
   /** Runs `fn` while no other process (or call) holds `name` on this database, waiting for it (exclusive.ts). */
   exclusive: Exclusive;
+  /** Runs work side by side under a name, and other work only when none of it runs (exclusive.ts). */
+  sections: SharedSections;
   /** embedded only: true when a read-only folder is read through a temporary copy */
   readOnlyCopy: boolean;
   close(): Promise<void>;
@@ -172,6 +174,7 @@ function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
         return db.transaction().execute((trx) => inTrx.run(true, () => fn(trx)));
       },
       exclusive: inProcessExclusive(),
+      sections: inProcessShared(),
       readOnlyCopy: folder?.copy ?? false,
       async close() {
         try {
@@ -310,6 +313,7 @@ async function openServer(target: string, opts: OpenStoreOptions): Promise<Store
       }
     },
     exclusive: locks.exclusive,
+    sections: locks.sections,
     readOnlyCopy: false,
     async close() {
       await locks.close();

@@ -24,6 +24,7 @@
  */
 import { sql, type Kysely } from 'kysely';
 import { channelBytes } from './channel-bytes.ts';
+import { lockKey } from './exclusive.ts';
 import type { BinaryType, BinaryValue } from './copy-binary.ts';
 import type { Store } from './open-store.ts';
 import type { Insertable } from 'kysely';
@@ -36,8 +37,19 @@ export const CURVE_TYPES: readonly BinaryType[] = ['int8', 'int4', 'bytea', 'byt
 export const SUMMARY_COLUMNS = ['test_row_id', 'yield_mpa', 'yield_definition', 'tensile_mpa', 'uniform_elongation_pct', 'elongation_pct'];
 export const REJECTION_COLUMNS = ['run_id', 'file', 'line', 'col', 'code', 'message'];
 
-/** The transaction-level advisory lock key that serializes ingest batches on a server ("frac"). */
-const BATCH_LOCK = 0x6672_6163;
+/**
+ * Transaction-level advisory locks (PostgreSQL documentation, "Advisory Locks") on the identities
+ * a batch writes, taken first in its transaction and in ascending key order: two ingests writing
+ * the same identity take turns (the second then finds the first's version stored and judges
+ * against it), batches of different identities write side by side, and equal orders cannot
+ * deadlock. The reference rows (grades, suppliers, heats, source files) are inserted in sorted
+ * order for the same reason.
+ */
+async function lockIdentities(db: Kysely<Database>, records: BatchRecord[]): Promise<void> {
+  const keys = [...new Set(records.map((r) => BigInt(lockKey(`test ${r.lab}/${r.testId}`))))].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+  if (keys.length === 0) return;
+  await sql`select count(pg_advisory_xact_lock(k)) from (select k from unnest(${sql.val(keys.map(String))}::int8[]) with ordinality as u(k, i) order by i offset 0) s`.execute(db);
+}
 
 export interface RejectionValues {
   file: string;
@@ -130,8 +142,8 @@ async function storedVersions(db: Kysely<Database>, records: BatchRecord[]): Pro
 
 /** Ids of grades, suppliers and heats for these records, inserting the new ones. */
 async function referenceIds(db: Kysely<Database>, records: BatchRecord[]) {
-  const grades = [...new Set(records.map((r) => r.grade))];
-  const suppliers = [...new Set(records.map((r) => r.supplier))];
+  const grades = [...new Set(records.map((r) => r.grade))].sort();
+  const suppliers = [...new Set(records.map((r) => r.supplier))].sort();
   await sql`insert into grades (code) select unnest(${sql.val(grades)}::text[]) on conflict (code) do nothing`.execute(db);
   await sql`insert into suppliers (name) select unnest(${sql.val(suppliers)}::text[]) on conflict (name) do nothing`.execute(db);
   const g = await sql<{ id: number; code: string }>`select id, code from grades where code = any(${sql.val(grades)}::text[])`.execute(db);
@@ -143,8 +155,9 @@ async function referenceIds(db: Kysely<Database>, records: BatchRecord[]) {
   for (const r of records) if (r.heat !== null) heats.set(heatKey(supplierId.get(r.supplier)!, r.heat), { supplier: supplierId.get(r.supplier)!, code: r.heat });
   const heatId = new Map<string, number>();
   if (heats.size) {
-    const sup = [...heats.values()].map((h) => h.supplier);
-    const code = [...heats.values()].map((h) => h.code);
+    const sorted = [...heats.values()].sort((a, b) => a.supplier - b.supplier || (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+    const sup = sorted.map((h) => h.supplier);
+    const code = sorted.map((h) => h.code);
     await sql`insert into heats (supplier_id, code) select * from unnest(${sql.val(sup)}::int4[], ${sql.val(code)}::text[]) on conflict (supplier_id, code) do nothing`.execute(db);
     const h = await sql<{ id: number; supplier_id: number; code: string }>`
       select h.id, h.supplier_id, h.code from unnest(${sql.val(sup)}::int4[], ${sql.val(code)}::text[]) as k(supplier_id, code)
@@ -165,8 +178,8 @@ function refusedData(e: unknown): e is Error & { code: string } {
 
 async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promise<BatchOutcome[]> {
   return store.transaction(async (db) => {
-    if (store.engine === 'postgres') await sql`select pg_advisory_xact_lock(${BATCH_LOCK})`.execute(db);
     const records = indexes.map((i) => batch.records[i]);
+    if (store.engine === 'postgres') await lockIdentities(db, records);
     const stored = await storedVersions(db, records);
     const ids = await sql<{ id: number }>`select nextval(pg_get_serial_sequence('tests', 'id')) as id from generate_series(1, ${indexes.length}::int4)`.execute(db);
     const rowId = new Map(indexes.map((i, k) => [i, Number(ids.rows[k].id)]));
@@ -204,7 +217,7 @@ async function attempt(store: Store, batch: TestBatch, indexes: number[]): Promi
         return [rowId.get(t.index), s.yield_mpa, s.yield_definition, s.tensile_mpa, s.uniform_elongation_pct, s.elongation_pct];
       }));
     }
-    if (files.size) await db.insertInto('source_files').values([...files.values()]).onConflict((oc) => oc.column('sha256').doNothing()).execute();
+    if (files.size) await db.insertInto('source_files').values([...files.values()].sort((a, b) => (a.sha256 < b.sha256 ? -1 : 1))).onConflict((oc) => oc.column('sha256').doNothing()).execute();
     const rejections = outcomes.flatMap((o) => (o.kind === 'rejection' ? [o.rejection] : []));
     if (rejections.length) await store.copyRows('rejections', REJECTION_COLUMNS, rejectionRows(batch.run, rejections));
     if (batch.written && tests.length) await batch.written(tests.map((t) => ({ index: t.index, rowId: rowId.get(t.index)! })));
