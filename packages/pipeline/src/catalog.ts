@@ -31,7 +31,7 @@
  * A grade missing from the catalog is reduced with the defaults (steel, rp0.2) and has no limits.
  * A top-level "$comment" string is allowed (JSON has no comments); every other unknown key is an
  * error naming its line and column, so a misspelt key never falls back to a default unseen.
- * docs/catalog.md documents every key.
+ * docs/input-formats.md documents every key.
  */
 import { readFileSync } from 'node:fs';
 import { JsonSyntaxError, parseLocatedJson, type JsonPosition, type LocatedJson } from './json-located.ts';
