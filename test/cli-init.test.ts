@@ -45,6 +45,10 @@ describe('fractile init', () => {
     expect(curveTest.modulus_gpa).toBeCloseTo(205, 0);
     // Rm = max force / S0 with S0 = π·(10 mm)²/4; the curve's top is 380 + 160·(1 − e^−4) MPa
     expect(curveTest.rm_mpa).toBeCloseTo(380 + 160 * (1 - Math.exp(-4)), 0);
+    // Rp0.2 (ISO 6892-1: the stress at 0.2 % plastic extension): 380 + 160·(1 − e^(−0.002/0.04)) MPa
+    // by the stated law; the curve samples plastic strain every 0.004, so within 0.5 MPa
+    expect(Math.abs(curveTest.rp02_mpa - (380 + 160 * (1 - Math.exp(-0.002 / 0.04))))).toBeLessThan(0.5);
+    expect(curveTest.flags).not.toContain('modulus_poor_fit');
     expect(summaryTest).toMatchObject({ rm_mpa: 528, yield_mpa: 391, given: true });
     const st = fractile(proj, 'stats', '--format', 'json');
     expect(st.status, st.stderr).toBe(0);

@@ -17,9 +17,9 @@ export function exampleCurve(): string {
   const rows: string[] = ['# example curve: round bar d = 10 mm, L0 = 50 mm (invented values)', 'time[s],force[kN],extension[mm]'];
   const push = (strain: number, stress: number) => {
     const ext = strain * 50;
-    rows.push(`${(ext / 0.05).toFixed(3)},${((stress * area) / 1000).toFixed(4)},${ext.toFixed(5)}`);
+    rows.push(`${(ext / 0.05).toFixed(3)},${((stress * area) / 1000).toFixed(4)},${ext.toFixed(6)}`);
   };
-  for (let i = 0; i <= 24; i++) push((e0 * i) / 24, (380 * i) / 24);
+  for (let i = 0; i <= 60; i++) push((e0 * i) / 60, (380 * i) / 60);
   for (let i = 1; i <= 40; i++) {
     const ep = (0.16 * i) / 40;
     push(e0 + ep + (160 * (1 - Math.exp(-ep / 0.04))) / 205000, 380 + 160 * (1 - Math.exp(-ep / 0.04)));
