@@ -22,7 +22,7 @@ function fractile(...args: string[]): { status: number | null; stdout: string; s
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
-const COMMANDS = ['ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'distributions', 'plan', 'drift', 'alerts', 'report', 'run', 'demo'];
+const COMMANDS = ['init', 'ingest', 'tests', 'reduce', 'properties', 'stats', 'curves', 'sample', 'distributions', 'plan', 'drift', 'alerts', 'report', 'run', 'demo'];
 
 beforeAll(() => {
   demo = generateDemo({ outDir: join(dir, 'scenario'), tests: 60, seed: 11, pointsPerCurve: 500 });

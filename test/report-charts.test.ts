@@ -7,7 +7,10 @@ import { describe, expect, it } from 'vitest';
 import {
   fitDensity,
   headlineCharacteristic,
+  freedmanDiaconisCount,
   histogramBins,
+  MAX_BINS,
+  MIN_BINS,
   histogramInput,
   renderControlChart,
   renderComparisonChart,
@@ -67,23 +70,69 @@ print(json.dumps(out))
 });
 
 describe('histogram bins', () => {
-  it('count every finite value once on a 1-2-5 step and ignore non-finite values', () => {
-    const values = [351, 352.5, 360, 360, 371.2, 389.9, 390, 402, Number.NaN, Infinity];
+  // a deterministic sample generator (LCG, Numerical Recipes constants) so that the cases are fixed
+  const lcg = (seed: number) => () => {
+    seed = (1664525 * seed + 1013904223) >>> 0;
+    return (seed + 0.5) / 2 ** 32;
+  };
+  const normalish = (n: number, mean: number, sd: number, seed: number) => {
+    const u = lcg(seed);
+    return Array.from({ length: n }, () => Math.round(100 * (mean + sd * Math.sqrt(-2 * Math.log(u())) * Math.cos(2 * Math.PI * u()))) / 100);
+  };
+  const cases: [string, number[]][] = [
+    ['400 strengths', normalish(400, 392, 14, 7)],
+    ['1000 strengths', normalish(1000, 520, 22, 3)],
+    ['60 elongations', normalish(60, 24, 2.5, 11)],
+    ['30 ratios', normalish(30, 0.78, 0.03, 5)],
+  ];
+
+  it.each(cases)('%s: edges and counts of numpy.histogram(bins="fd") (Freedman & Diaconis 1981)', (_name, values) => {
+    // Reference: NumPy numpy.histogram / histogram_bin_edges with bins='fd': h = 2·IQR·n^(-1/3)
+    const ref = runPython<{ edges: number[]; counts: number[] }>(
+      "import numpy as np\nx = np.array(data)\nc, e = np.histogram(x, bins='fd')\nprint(json.dumps({'edges': [float(v) for v in np.histogram_bin_edges(x, bins='fd')], 'counts': [int(v) for v in c]}))",
+      values,
+    );
+    expect(ref.counts.length).toBeGreaterThanOrEqual(MIN_BINS);
+    expect(ref.counts.length).toBeLessThanOrEqual(MAX_BINS);
+    expect(freedmanDiaconisCount(values)).toBe(ref.counts.length);
     const h = histogramBins(values);
-    expect(h.n).toBe(8);
-    expect(h.bins.reduce((s, b) => s + b.count, 0)).toBe(8);
-    // Sturges: ceil(log2 8) + 1 = 4 → 5 bins minimum; range 51 / 5 = 10.2 → nice step 20
-    expect(h.step).toBe(20);
-    for (const v of values.filter(Number.isFinite)) {
-      expect(h.bins.filter((b) => v >= b.start && v < b.stop + 1e-9).length).toBeGreaterThanOrEqual(1);
-    }
-    expect(h.bins[0].start).toBeLessThanOrEqual(351);
-    expect(h.bins[h.bins.length - 1].stop).toBeGreaterThanOrEqual(402);
+    expect(h.bins.map((b) => b.count)).toEqual(ref.counts);
+    const edges = [...h.bins.map((b) => b.start), h.bins.at(-1)!.stop];
+    edges.forEach((e, i) => expect(e).toBeCloseTo(ref.edges[i], 9));
+    expect(h.step).toBeCloseTo(ref.edges[1] - ref.edges[0], 9);
   });
 
-  it('handle no values and all-equal values', () => {
+  it('gives hundreds of tests more than the 7 bins of Sturges: n = 400 → numpy fd count', () => {
+    const values = cases[0][1];
+    // Sturges: ⌈log2 400⌉ + 1 = 10 over the range; FD for a normal sample grows as n^(1/3)
+    expect(histogramBins(values).bins.length).toBeGreaterThan(10);
+  });
+
+  it('holds the bin count between the floor and the cap where the rule gives fewer or more (numpy count clamped)', () => {
+    // 8 values: FD gives few bins; one far outlier among 200 tight values gives hundreds
+    const few = [351, 352.5, 360, 360, 371.2, 389.9, 390, 402, Number.NaN, Infinity];
+    const outlier = [...normalish(199, 400, 2, 9), 5000];
+    const ref = runPython<number[]>("import numpy as np\nprint(json.dumps([len(np.histogram_bin_edges(np.array(v), bins='fd')) - 1 for v in data]))", [few.filter(Number.isFinite), outlier]);
+    expect(ref[0]).toBeLessThan(MIN_BINS);
+    expect(ref[1]).toBeGreaterThan(MAX_BINS);
+    const h = histogramBins(few);
+    expect(h.n).toBe(8);
+    expect(h.bins.length).toBe(MIN_BINS);
+    expect(h.bins.reduce((s, b) => s + b.count, 0)).toBe(8);
+    expect(h.bins[0].start).toBe(351);
+    expect(h.bins.at(-1)!.stop).toBe(402);
+    const o = histogramBins(outlier);
+    expect(o.bins.length).toBe(MAX_BINS);
+    expect(o.bins.reduce((s, b) => s + b.count, 0)).toBe(200);
+    expect(o.bins.at(-1)!.count).toBe(1);
+  });
+
+  it('handle no values, all-equal values, and IQR = 0 with a spread (numpy gives 1 bin; the floor applies)', () => {
     expect(histogramBins([]).bins).toEqual([]);
     expect(histogramBins([5, 5, 5]).bins).toEqual([{ start: 4.5, stop: 5.5, count: 3 }]);
+    const ties = [...Array(20).fill(400), 380, 430];
+    expect(freedmanDiaconisCount(ties)).toBe(runPython<number>("import numpy as np\nprint(len(np.histogram_bin_edges(np.array(data), bins='fd')) - 1)", ties));
+    expect(histogramBins(ties).bins.map((b) => b.count)).toEqual([1, 0, 20, 0, 1]);
   });
 });
 

@@ -4,6 +4,7 @@
  * folder is listed). `--help` lists them in their `order`. A static table, not a folder scan, so
  * that the compiled CLI needs no file-system lookup and no loader to start.
  */
+export { command as init } from './commands/init.ts';
 export { command as ingest } from './commands/ingest.ts';
 export { command as tests } from './commands/tests.ts';
 export { command as reduce } from './commands/reduce.ts';

@@ -4,7 +4,8 @@
 import { Command } from 'commander';
 import * as table from './command-table.ts';
 import type { CommandModule } from './context.ts';
-import { CliError, reportFailure } from './context.ts';
+import { CliError, globals, reportFailure } from './context.ts';
+import { catalogPath } from './common-options.ts';
 import { CODE_VERSION } from './version.ts';
 
 export async function buildProgram(): Promise<Command> {
@@ -25,6 +26,14 @@ export async function buildProgram(): Promise<Command> {
 
   const modules: CommandModule[] = Object.values(table).sort((a, b) => a.order - b.order);
   for (const m of modules) m.register(program);
+  // a wrong catalog (--catalog, or the project file's) is refused before any database is opened
+  program.hook('preAction', async (_root, action) => {
+    if (!action.options.some((o) => o.attributeName() === 'catalog')) return;
+    const file = catalogPath(action.opts().catalog, globals(action));
+    if (file === null) return;
+    const { loadCatalog } = await import('@fractile/pipeline');
+    loadCatalog(file);
+  });
   return program;
 }
 

@@ -7,7 +7,7 @@
  *
  *   {
  *     "database": "db",                        // folder of the embedded database, or postgres://…
- *     "catalog": "grades.json",
+ *     "catalog": "catalog.json",
  *     "manifests": ["data/manifest.csv", { "path": "data/mill-b.csv", "map": "maps/mill-b.json" }],
  *     "out": "fractile-out"
  *   }

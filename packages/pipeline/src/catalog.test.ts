@@ -50,6 +50,18 @@ describe('grade catalog validation', () => {
     expect(faultOf('{"grades": {}, "units": "MPa"}')).toMatchObject({ line: 1, column: 16, message: expect.stringMatching(/unknown top-level key "units"/) });
   });
 
+  it('refuses negative limits and a yield-to-tensile ratio outside (0, 1], naming the JSON Pointer (RFC 6901)', () => {
+    expect(faultOf('{"grades": {"G": {"spec": {"yield_min_mpa": -355}}}}')).toMatchObject({ line: 1, column: 28, message: 'grade "G": spec.yield_min_mpa must not be negative, got -355 (at /grades/G/spec/yield_min_mpa)' });
+    expect(faultOf('{"grades": {"G": {"spec": {"elongation_min_pct": -1}}}}').message).toMatch(/elongation_min_pct must not be negative/);
+    // Re ≤ Rm (Rm is the stress at maximum force, ISO 6892-1), so Re/Rm ≤ 1
+    expect(faultOf('{"grades": {"G": {"spec": {"yt_max": 1.2}}}}').message).toMatch(/yt_max must lie in \(0, 1\]/);
+    expect(faultOf('{"grades": {"G": {"spec": {"yt_max": 0}}}}').message).toMatch(/yt_max must lie in \(0, 1\]/);
+    // RFC 6901 §3: "~" is written "~0" and "/" is written "~1" in a reference token
+    expect(faultOf('{"grades": {"S/1~a": {"family": "wood"}}}').message).toMatch(/\(at \/grades\/S~11~0a\/family\)$/);
+    expect(faultOf('{"grades": {"G": {"properties": {"yeild_mpa": {}}}}}')).toMatchObject({ message: expect.stringMatching(/unknown property "yeild_mpa".*\(at \/grades\/G\/properties\/yeild_mpa\)$/) });
+    expect(faultOf('{"grades": {"G": {"rp_offset_pct": "0.2"}}}').message).toMatch(/rp_offset_pct must be a positive number.*\(at \/grades\/G\/rp_offset_pct\)$/);
+  });
+
   it('reads a valid catalog with a $comment', () => {
     const f = join(dir, 'ok.json');
     writeFileSync(f, JSON.stringify({ $comment: 'invented grades', grades: { G: { yield_definition: 'reh', spec: { yield_min_mpa: 355 }, properties: { yield_mpa: { prior_v: 0.07 } } } } }));

@@ -31,7 +31,7 @@
  * A grade missing from the catalog is reduced with the defaults (steel, rp0.2) and has no limits.
  * A top-level "$comment" string is allowed (JSON has no comments); every other unknown key is an
  * error naming its line and column, so a misspelt key never falls back to a default unseen.
- * docs/catalog.md documents every key.
+ * docs/input-formats.md documents every key.
  */
 import { readFileSync } from 'node:fs';
 import { JsonSyntaxError, parseLocatedJson, type JsonPosition, type LocatedJson } from './json-located.ts';
@@ -86,9 +86,16 @@ export class CatalogError extends Error {
     readonly file: string,
     readonly line = 0,
     readonly column = 0,
+    /** where in the document, as a JSON Pointer (RFC 6901); "" for the whole document */
+    readonly pointer = '',
   ) {
     super(message);
   }
+}
+
+/** The JSON Pointer (RFC 6901 §3–4: "~" → "~0", "/" → "~1") of a key path: /grades/G355/spec. */
+export function jsonPointer(path: readonly (string | number)[]): string {
+  return path.map((k) => `/${String(k).replaceAll('~', '~0').replaceAll('/', '~1')}`).join('');
 }
 
 const FAMILIES: readonly Family[] = ['steel', 'aluminium', 'other'];
@@ -106,7 +113,7 @@ type Path = readonly (string | number)[];
 export function parseCatalog(raw: unknown, file = '(catalog)', at?: (path: Path) => JsonPosition): Catalog {
   const fail = (msg: string, path: Path = []): never => {
     const p = at?.(path);
-    throw new CatalogError(msg, file, p?.line ?? 0, p?.column ?? 0);
+    throw new CatalogError(path.length ? `${msg} (at ${jsonPointer(path)})` : msg, file, p?.line ?? 0, p?.column ?? 0, jsonPointer(path));
   };
   const isObject = (v: unknown): v is Record<string, unknown> => !!v && typeof v === 'object' && !Array.isArray(v);
   if (!isObject(raw) || !('grades' in raw)) fail('the catalog must be an object with a "grades" object: { "grades": { "<grade label>": { … } } }');
@@ -136,6 +143,9 @@ export function parseCatalog(raw: unknown, file = '(catalog)', at?: (path: Path)
       if (!SPEC_KEYS.includes(k as keyof SpecLimits)) fail(`grade "${label}": unknown spec key "${k}" (known: ${SPEC_KEYS.join(', ')})`, here('spec', k));
       const x = specRaw[k];
       if (x !== null && (typeof x !== 'number' || !Number.isFinite(x))) fail(`grade "${label}": spec.${k} must be a number or null, got ${JSON.stringify(x)}`, here('spec', k));
+      // strengths and elongations are not negative; Re/Rm lies in (0, 1] since Re ≤ Rm (ISO 6892-1: Rm is the stress at maximum force)
+      if (typeof x === 'number' && k === 'yt_max' && !(x > 0 && x <= 1)) fail(`grade "${label}": spec.yt_max must lie in (0, 1] (yield over tensile strength), got ${x}`, here('spec', k));
+      if (typeof x === 'number' && x < 0) fail(`grade "${label}": spec.${k} must not be negative, got ${x}`, here('spec', k));
       spec[k as keyof SpecLimits] = x as number | null;
     }
     const pair = (lo: keyof SpecLimits, hi: keyof SpecLimits) => {

@@ -11,5 +11,5 @@ export { escapeHtml } from './html-escape.ts';
 export { propertyLabel, propertyAxisTitle, type PropertyLabel } from './property-labels.ts';
 export { groupLabel, groupId } from './group-label.ts';
 export { fitDensity } from './fit-density.ts';
-export { histogramBins, type Histogram, type HistogramBin } from './histogram-bins.ts';
+export { freedmanDiaconisCount, histogramBins, MAX_BINS, MIN_BINS, type Histogram, type HistogramBin } from './histogram-bins.ts';
 export { renderPlanningChart, planningTemplate, planningInput } from './planning-chart.ts';
