@@ -76,6 +76,18 @@ describe('fractile init', () => {
     expect(readFileSync(join(folder, 'manifest.csv'), 'utf8')).toMatch(/^# one row per test/);
   });
 
+  it('writes a new project beside a broken fractile.json in the working folder', () => {
+    const here = join(dir, 'broken-here');
+    mkdirSync(here);
+    writeFileSync(join(here, 'fractile.json'), '{ "database": ');
+    // other commands refuse the broken file; init does not read it
+    expect(fractile(here, 'tests').status).toBe(2);
+    const r = fractile(here, 'init', 'fresh');
+    expect(r.status, r.stderr).toBe(0);
+    expect(existsSync(join(here, 'fresh', 'fractile.json'))).toBe(true);
+    expect(readFileSync(join(here, 'fractile.json'), 'utf8')).toBe('{ "database": ');
+  });
+
   it('refuses a path that is a file', () => {
     writeFileSync(join(dir, 'plain.txt'), 'x');
     const r = fractile(dir, 'init', 'plain.txt');

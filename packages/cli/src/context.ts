@@ -42,14 +42,15 @@ export interface GlobalOptions {
 }
 
 /** Reads the global options from any (sub)command. */
-export function globals(cmd: Command): GlobalOptions {
+/** The global options; `project: false` leaves ./fractile.json unread (for `init`, which writes one). */
+export function globals(cmd: Command, opts: { project?: boolean } = {}): GlobalOptions {
   const o = cmd.optsWithGlobals() as { db?: string; format?: string; wait?: string; debug?: boolean; comments?: boolean; sidecar?: string };
   const format = (o.format ?? 'table') as OutputFormat;
   if (!['table', 'json', 'csv'].includes(format)) throw new CliError(`--format must be table, json or csv, got "${o.format}"`);
   const waitSeconds = o.wait === undefined ? 0 : Number(o.wait);
   if (!(waitSeconds >= 0 && waitSeconds <= 86400)) throw new CliError(`--wait must be a number of seconds from 0 to 86400, got "${o.wait}"`);
   if (o.sidecar !== undefined && format !== 'csv') throw new CliError('--sidecar goes with --format csv --no-comments');
-  return { db: o.db, format, waitSeconds, command: commandName(cmd), debug: Boolean(o.debug), project: loadProject(), comments: o.comments !== false, sidecar: o.sidecar, startedAt: new Date().toISOString() };
+  return { db: o.db, format, waitSeconds, command: commandName(cmd), debug: Boolean(o.debug), project: opts.project === false ? null : loadProject(), comments: o.comments !== false, sidecar: o.sidecar, startedAt: new Date().toISOString() };
 }
 
 /** "stats", or "alerts ack" for a subcommand. */

@@ -22,7 +22,8 @@ export const command: CommandModule = {
       .option('--force', 'overwrite files that already exist')
       .addHelpText('after', '\nExit status: 0 written, 2 when a file exists already (nothing is written) or the folder cannot be used.')
       .action((folder: string, o: { force?: boolean }, cmd: Command) => {
-        const g = globals(cmd);
+        // a broken ./fractile.json in the working folder must not stop writing a new one
+        const g = globals(cmd, { project: false });
         const root = resolve(folder);
         if (existsSync(root) && !statSync(root).isDirectory()) throw new CliError(`${folder} is not a folder`);
         const files = starterFiles();
