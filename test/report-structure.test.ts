@@ -139,18 +139,12 @@ describe('report structure', async () => {
     expect(await renderReport(data)).toBe(html);
   });
 
-  it('renders the demo size (12 groups, 100 curves each, 12 properties, 16 control charts) in seconds', async () => {
+  it('renders the demo size (12 groups, 100 curves each, 12 properties, 16 control charts) with every chart', async () => {
+    // its time is measured by `npm run bench:report`, not asserted here
     const big = sampleReportData({ groups: 12, curvesPerGroup: 100, pointsPerCurve: 50, properties: 12, valuesPerProperty: 80, controlCharts: 16 });
-    const start = performance.now();
-    const cpu = process.cpuUsage();
     const page = await renderReport(big);
-    const seconds = (performance.now() - start) / 1000;
-    const used = process.cpuUsage(cpu);
-    const cpuSeconds = (used.user + used.system) / 1e6;
-    console.log(`report at demo size: ${seconds.toFixed(2)} s wall, ${cpuSeconds.toFixed(2)} s CPU, ${(page.length / 1e6).toFixed(1)} MB, ${count(page, '<svg ')} charts`);
     expect(count(page, '<svg ')).toBe(12 * 13 + 16 + 1);
-    // generous bound for a loaded CI machine; the figure itself is reported above
-    expect(seconds).toBeLessThan(30);
+    expect(count(page, DESIGN_VALUE_CAUTION)).toBe(2);
   });
 });
 
