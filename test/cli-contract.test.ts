@@ -161,7 +161,8 @@ describe('fractile command line', () => {
     expect(u.stdout.split('\n').find((l) => !l.startsWith('#'))).toMatch(/^grade,set,parameter_draw,/);
     // the planning table: the value now and after 10, 20, 50 more tests
     const p = JSON.parse(fractile('plan', '--db', db, '--property', 'yield_mpa', '--replicates', '200', '--format', 'json').stdout);
-    const planned = p.plans.find((x: { plan: unknown }) => x.plan);
+    expect(p).toMatchObject({ kind: 'plan', caution: expect.stringMatching(/licensed engineer/) });
+    const planned = p.data.plans.find((x: { plan: unknown }) => x.plan);
     expect(planned.plan.rows.map((r: { added: number }) => r.added)).toEqual([0, 10, 20, 50]);
     // bad options are named
     const bad = fractile('sample', '--db', db, '--parameter-uncertainty', 'guess');
