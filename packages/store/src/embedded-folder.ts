@@ -15,6 +15,7 @@ import { accessSync, chmodSync, constants, cpSync, existsSync, mkdirSync, mkdtem
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { HOLDER_FILE, lockFolder, type FolderLock } from './folder-lock.ts';
+import { COPY_MARKER } from './embedded-template.ts';
 import { StoreError } from './store-error.ts';
 
 export interface PreparedFolder {
@@ -71,7 +72,8 @@ export async function prepareFolder(folder: string, opts: FolderOptions = {}): P
     if (e instanceof StoreError) throw e;
     throw new StoreError('database_unavailable', `cannot read the database folder ${folder}: ${reason(e)}`, { cause: e });
   }
-  if (entries.some((f) => f !== HOLDER_FILE) && !entries.includes('PG_VERSION'))
+  // a copy of the template left half done by a killed process counts as new (open-store.ts redoes it)
+  if (entries.some((f) => f !== HOLDER_FILE) && !entries.includes('PG_VERSION') && !entries.includes(COPY_MARKER))
     throw new StoreError('not_a_database', `${folder} holds other files but no database (no PG_VERSION): give an empty or new folder, or an existing database folder`);
   const control = path.join(folder, 'global', 'pg_control');
   const canWrite = writable(folder) && (!existsSync(control) || writable(control));

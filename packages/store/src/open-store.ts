@@ -19,6 +19,9 @@
  * writer per name across processes (exclusive.ts).
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
+import { existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import path from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
 import { Kysely, PostgresDialect, sql } from 'kysely';
 import type { PostgresPool, PostgresPoolClient } from 'kysely';
@@ -28,6 +31,9 @@ import { from as copyFrom, to as copyTo } from 'pg-copy-streams';
 import { BinaryCopyEncoder, decodeBinaryCopy, type BinaryType, type BinaryValue, type DecodedValue } from './copy-binary.ts';
 import { copyLine } from './copy-text.ts';
 import { prepareFolder } from './embedded-folder.ts';
+import { COPY_MARKER, copyTemplate, ensureTemplate, type TemplateSpec } from './embedded-template.ts';
+import { HOLDER_FILE } from './folder-lock.ts';
+import { MIGRATIONS } from './migrations/index.ts';
 import { inProcessExclusive, inProcessShared, serverExclusive, type Exclusive, type SharedSections } from './exclusive.ts';
 import { migrateToLatest } from './migrate.ts';
 import { installFsync, PGLITE_DURABLE_PARAMS } from './pglite-durability.ts';
@@ -67,6 +73,8 @@ export interface OpenStoreOptions {
   waitMs?: number;
   /** embedded: the caller only reads; a read-only folder is then read through a temporary copy */
   readOnly?: boolean;
+  /** embedded: a new database is copied from the cached template (default true; embedded-template.ts) */
+  template?: boolean;
 }
 
 export function isServerTarget(target: string): boolean {
@@ -99,11 +107,45 @@ async function* eachRow<R>(rows: Iterable<R> | AsyncIterable<R>): AsyncGenerator
   yield* rows as AsyncIterable<R>;
 }
 
+/** The engine package's version (its package.json beside the entry it resolves to), or null when not found. */
+function pgliteVersion(): string | null {
+  try {
+    let dir = path.dirname(createRequire(import.meta.url).resolve('@electric-sql/pglite'));
+    for (let i = 0; i < 4; i++, dir = path.dirname(dir)) {
+      const file = path.join(dir, 'package.json');
+      if (!existsSync(file)) continue;
+      const pkg = JSON.parse(readFileSync(file, 'utf8')) as { name?: string; version?: string };
+      if (pkg.name === '@electric-sql/pglite' && pkg.version) return pkg.version;
+    }
+  } catch {}
+  return null;
+}
+
+/** What a template of a new embedded database depends on, and how to make one (embedded-template.ts). */
+function templateSpec(): TemplateSpec | null {
+  const version = pgliteVersion();
+  if (!version) return null; // an engine of unknown version: no template, whose files it might not read
+  const migrations = Object.entries(MIGRATIONS).map(([name, m]) => `${name}:${String(m.up)}`);
+  return {
+    parts: [`pglite ${version}`, ...PGLITE_START_PARAMS, ...migrations],
+    async create(dir) {
+      await (await openPglite(dir, { template: false })).close();
+    },
+  };
+}
+
 function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
   return (async () => {
     const folder = target.startsWith('memory://') ? null : await prepareFolder(target, { readOnly: opts.readOnly, waitMs: opts.waitMs });
     let pglite: PGlite;
     try {
+      const halfCopied = folder !== null && existsSync(path.join(folder.path, COPY_MARKER));
+      if (folder && !folder.copy && (halfCopied || (opts.template !== false && !existsSync(path.join(folder.path, 'PG_VERSION'))))) {
+        const spec = templateSpec();
+        const template = spec ? await ensureTemplate(spec) : null;
+        if (template) copyTemplate(template, folder.path, [HOLDER_FILE]);
+        else if (halfCopied) for (const f of readdirSync(folder.path)) if (f !== HOLDER_FILE) rmSync(path.join(folder.path, f), { recursive: true, force: true });
+      }
       pglite = await PGlite.create(folder?.path ?? target, {
         parsers: { 20: (v: string) => Number(v), 1082: (v: string) => v },
         startParams: PGLITE_START_PARAMS,
