@@ -72,6 +72,31 @@ describe('report in a browser', () => {
       // the hostile-looking supplier name is shown as text
       expect(await page.locator('h2', { hasText: 'Northmill <Plate & Coil>' }).count()).toBe(1);
 
+      // the idealized-curve panel in the trade's words, one per group, laid out and readable
+      const panels = page.locator('.side h3', { hasText: 'Idealized characteristic curve' });
+      expect(await panels.count()).toBe(3);
+      for (let i = 0; i < 3; i++) expect(await panels.nth(i).isVisible()).toBe(true);
+      expect(await page.locator('dt', { hasText: 'Modulus of elasticity E' }).first().isVisible()).toBe(true);
+      expect(await page.locator('dt', { hasText: 'Hardening modulus (vs true plastic strain)' }).first().isVisible()).toBe(true);
+      const multilinear = page.locator('.side table.compact').first();
+      expect(await multilinear.isVisible()).toBe(true);
+      expect(await multilinear.locator('tbody tr').count()).toBeGreaterThan(5);
+      // no machine keys in what a reader sees
+      const text = await page.evaluate(() => document.body.innerText);
+      for (const key of ['e_mpa', 'hardening_modulus_mpa', 'tangent_modulus_mpa', 'rmse_mpa', 'flags, 0 set']) expect(text).not.toContain(key);
+      // the side panel does not leave a blank area under the chart: the row is as tall as its taller part
+      const rows = await page.$$eval('.curve-row', (els) =>
+        els.map((el) => {
+          const kids = Array.from(el.children).map((c) => c.getBoundingClientRect().height);
+          return { row: el.getBoundingClientRect().height, tallest: Math.max(...kids) };
+        }),
+      );
+      expect(rows.length).toBe(3);
+      for (const r of rows) expect(r.row).toBeLessThanOrEqual(r.tallest + 40);
+      // the planning and data-quality sections are shown
+      expect(await page.locator('#planning h2').isVisible()).toBe(true);
+      expect(await page.locator('#quality h2').isVisible()).toBe(true);
+
       expect(requests).toEqual([url]);
       expect(problems).toEqual([]);
 
