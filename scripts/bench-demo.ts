@@ -21,7 +21,7 @@ if (r.status !== 0) {
   console.error(r.stderr);
   process.exit(1);
 }
-const res = JSON.parse(r.stdout) as { timings: Record<string, number>; ingest: { accepted: number; rejected: unknown[] } };
+const res = (JSON.parse(r.stdout) as { data: { timings: Record<string, number>; ingest: { accepted: number; rejected: unknown[] } } }).data;
 for (const [k, v] of Object.entries(res.timings)) console.log(`  ${k.padEnd(10)} ${v.toFixed(2)} s`);
 console.log(`accepted ${res.ingest.accepted}, rejected ${res.ingest.rejected.length}`);
 console.log(`wall time ${wall.toFixed(1)} s including start-up (target < 60 s)`);
