@@ -25,7 +25,7 @@ export { assembleReport, INFORMATIONAL_FLAGS, type ReportInputs } from './report
 export { writeExports, propertyCsvRows, PROPERTY_CSV_COLUMNS, PROPERTY_NOTES, type ExportInputs, type WrittenExports } from './exports/write-exports.ts';
 export { writeCurveFiles, writeFeTable, groupSlug, feFileName, type CurveFileOptions } from './exports/curve-files.ts';
 export { writeCsvFile, type CsvFileSpec } from './exports/csv-file.ts';
-export { CAUTION, csvCommentBlock, csvSidecar, csvTable, jsonEnvelope, sidecarName, significant, type Envelope } from './exports/export-format.ts';
+export { csvCommentBlock, csvSidecar, csvTable, jsonEnvelope, sidecarName, significant, type Envelope } from './exports/export-format.ts';
 export { feTable, feColumns, STRESS_UNITS, type FeTable, type FeTableOptions, type StressUnit } from './design/fe-table.ts';
 export { crossCheck, runCrossCheck, type CheckedProperty, type CrossCheckPair, type CrossCheckResult, type CrossCheckRow } from './crosscheck/crosscheck-stage.ts';
 export * from './sample/stage.ts';

@@ -6,6 +6,7 @@
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
 import { groupLabel } from '@fractile/report/group-label';
+import { HEADLINE_LEVEL } from '@fractile/stats/default-levels';
 import { CliError, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, addPopulationOptions, catalogPath, checkFilterValues, groupBy, probability, readFilter, readPopulation, resolveCatalog, withStore } from '../common-options.ts';
 import { grouped, print } from '../output.ts';
@@ -22,8 +23,8 @@ export const command: CommandModule = {
         .command('curves')
         .description('median and characteristic true stress – plastic strain curves per group, with idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
         .option('--by <fields>', 'grouping (comma-separated)', 'grade')
-        .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', '0.95')
-        .option('--confidence <g>', 'confidence of the lower tolerance bound', '0.75')
+        .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', String(HEADLINE_LEVEL.coverage))
+        .option('--confidence <g>', 'confidence of the lower tolerance bound', String(HEADLINE_LEVEL.confidence))
         .option('--model <m>', 'tolerance model at each strain: normal or lognormal', 'normal')
         .option('--extrapolate <law>', 'extend past the valid range by a law fitted to the characteristic curve: swift, voce or hollomon')
         .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
@@ -53,8 +54,8 @@ export const command: CommandModule = {
         if (band !== 'pointwise' && band !== 'simultaneous') throw new CliError('--band must be pointwise or simultaneous');
         const simulations = Number(o.bandSimulations);
         if (!Number.isInteger(simulations) || simulations < 100) throw new CliError('--band-simulations must be an integer ≥ 100');
-        const coverage = probability(o.coverage, '--coverage', 0.95);
-        const confidence = probability(o.confidence, '--confidence', 0.75);
+        const coverage = probability(o.coverage, '--coverage', HEADLINE_LEVEL.coverage);
+        const confidence = probability(o.confidence, '--confidence', HEADLINE_LEVEL.confidence);
         const design: Partial<DesignOptions> = {
           coverage,
           confidence,

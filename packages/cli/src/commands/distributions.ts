@@ -2,6 +2,7 @@
 import type { Command } from 'commander';
 import { CliError, globals, log, type CommandModule } from '../context.ts';
 import { csvTable } from '@fractile/pipeline/export-format';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import { toTable } from '../output.ts';
 import { addFilterOptions, addPopulationOptions, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -21,7 +22,7 @@ export const command: CommandModule = {
     ))
       .addHelpText('after', '\n--format json prints the export described in docs/distribution-export.md (schema: docs/distribution-export.schema.json).\n--format csv prints one row per group and property: family, parameters, standard errors.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { DEFAULT_SAMPLE_PROPERTIES, DESIGN_CAUTION, distributionExport, parseGroupBy, runDistributions, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+        const { DEFAULT_SAMPLE_PROPERTIES, distributionExport, parseGroupBy, runDistributions, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
         const g = globals(cmd);
         const seed = Number(o.seed);
         if (!Number.isInteger(seed)) throw new CliError('--seed must be a whole number');
@@ -58,8 +59,8 @@ export const command: CommandModule = {
               };
             }),
           );
-          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, sample run ${r.run}\n` + csvTable(rows));
-          else process.stdout.write(toTable(rows) + `\n${DESIGN_CAUTION}\n`);
+          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_VALUE_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, sample run ${r.run}\n` + csvTable(rows));
+          else process.stdout.write(toTable(rows) + `\n${DESIGN_VALUE_CAUTION}\n`);
         });
       });
   },

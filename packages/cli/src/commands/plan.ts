@@ -2,6 +2,7 @@
 import type { Command } from 'commander';
 import { CliError, globals, type CommandModule } from '../context.ts';
 import { csvTable } from '@fractile/pipeline/export-format';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import { toTable } from '../output.ts';
 import { addFilterOptions, addPopulationOptions, readFilter, readPopulation, readProperties, resolveCatalog, wholeNumber, wholeNumbers, withStore } from '../common-options.ts';
 import { CODE_VERSION } from '../version.ts';
@@ -22,7 +23,7 @@ export const command: CommandModule = {
     ))
       .addHelpText('after', '\nThe added tests are drawn from the population as fitted (the headline method\'s family); the design value is recomputed\nby its own method on the tests at hand plus the added ones.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
-        const { DEFAULT_PLAN_PROPERTIES, DESIGN_CAUTION, parseGroupBy, runPlan, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
+        const { DEFAULT_PLAN_PROPERTIES, parseGroupBy, runPlan, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
         const g = globals(cmd);
         const added = wholeNumbers(o.add, '--add', [10, 20, 50]);
         const replicates = wholeNumber(o.replicates, '--replicates', 2000, 2);
@@ -33,7 +34,7 @@ export const command: CommandModule = {
           const catalog = await resolveCatalog(store.db, o.catalog, g);
           const r = await runPlan(store, { by: parseGroupBy(o.by as string), properties, added, replicates, seed, filter: readFilter(o), population: readPopulation(o), catalog, codeVersion: CODE_VERSION });
           if (g.format === 'json') {
-            process.stdout.write(JSON.stringify({ caution: DESIGN_CAUTION, code_version: CODE_VERSION, stats_run: r.stats_run, plans: r.plans }, null, 2) + '\n');
+            process.stdout.write(JSON.stringify({ caution: DESIGN_VALUE_CAUTION, code_version: CODE_VERSION, stats_run: r.stats_run, plans: r.plans }, null, 2) + '\n');
             return;
           }
           const rows: Record<string, unknown>[] = r.plans.flatMap((p): Record<string, unknown>[] =>
@@ -41,8 +42,8 @@ export const command: CommandModule = {
               ? p.plan.rows.map((row) => ({ ...p.group, property: p.property, method: p.plan!.method, added: row.added, n: row.n, k: row.factors.k ?? null, t: row.factors.t ?? null, r: row.factors.r ?? null, expected: row.expected, p05: row.p05, p95: row.p95, gain: row.gain, sd_fresh: row.sd_fresh, population_fractile: p.plan!.population_fractile }))
               : [{ ...p.group, property: p.property, method: null, added: null, n: null, k: null, t: null, r: null, expected: null, p05: null, p95: null, gain: null, sd_fresh: null, population_fractile: null, note: p.note }],
           );
-          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, seed ${seed}, ${replicates} replicates\n` + csvTable(rows));
-          else process.stdout.write(toTable(rows) + `\n${DESIGN_CAUTION}\n`);
+          if (g.format === 'csv') process.stdout.write(`# ${DESIGN_VALUE_CAUTION}\n# code_version: ${CODE_VERSION}, stats run ${r.stats_run}, seed ${seed}, ${replicates} replicates\n` + csvTable(rows));
+          else process.stdout.write(toTable(rows) + `\n${DESIGN_VALUE_CAUTION}\n`);
         });
       });
   },
