@@ -6,7 +6,7 @@
  * d = 10 mm, L0 = 50 mm. Deterministic for a given seed (mulberry32 generator, written here
  * because it is four lines).
  */
-import { seededRandom } from '@fractile/curves';
+import { seededRandom } from '@fractile/curves/testing';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { open } from 'node:fs/promises';
 import path from 'node:path';
