@@ -223,27 +223,31 @@ interface Geometry {
   parallelLengthMm: number;
 }
 
+type SpecimenSize = Pick<Geometry, 'areaMm2' | 'gaugeLengthMm' | 'parallelLengthMm'>;
+const roundSpecimen = (diameter: string, gauge: string, size: SpecimenSize): Geometry => ({ shape: 'round', diameter, thickness: null, width: null, gauge, ...size });
+const flatSpecimen = (thickness: string, width: string, gauge: string, size: SpecimenSize): Geometry => ({ shape: 'flat', diameter: null, thickness, width, gauge, ...size });
+
 function geometry(p: Planned, rng: Rng): Geometry {
   if (p.channel === 'imperial') {
     if (p.product === 'bar') {
       const d = roundTo(0.5 * (1 + 0.001 * rng.normal()), 0.001);
       const dMm = d * IN_MM;
-      return { shape: 'round', diameter: d.toFixed(3), thickness: null, width: null, gauge: '2.000', areaMm2: (Math.PI * dMm * dMm) / 4, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.25 * IN_MM };
+      return roundSpecimen(d.toFixed(3), '2.000', { areaMm2: (Math.PI * dMm * dMm) / 4, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.25 * IN_MM });
     }
     const t = roundTo(rng.pick([0.375, 0.5, 0.625, 0.75]) * (1 + 0.003 * rng.normal()), 0.001);
     const w = roundTo(rng.pick([1.0, 1.5]) * (1 + 0.002 * rng.normal()), 0.001);
-    return { shape: 'flat', diameter: null, thickness: t.toFixed(3), width: w.toFixed(3), gauge: '2.000', areaMm2: t * w * IN_MM * IN_MM, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.5 * IN_MM };
+    return flatSpecimen(t.toFixed(3), w.toFixed(3), '2.000', { areaMm2: t * w * IN_MM * IN_MM, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.5 * IN_MM });
   }
   if (p.product === 'bar') {
     const d = roundTo(p.nominalMm * (1 + 0.001 * rng.normal()), 0.01);
     const l0 = 5 * p.nominalMm;
-    return { shape: 'round', diameter: d.toFixed(2), thickness: null, width: null, gauge: String(l0), areaMm2: (Math.PI * d * d) / 4, gaugeLengthMm: l0, parallelLengthMm: l0 + d };
+    return roundSpecimen(d.toFixed(2), String(l0), { areaMm2: (Math.PI * d * d) / 4, gaugeLengthMm: l0, parallelLengthMm: l0 + d });
   }
   const t = roundTo(p.nominalMm * (1 + 0.003 * rng.normal()), 0.01);
   const w = roundTo(rng.pick([20, 25, 30]) * (1 + 0.002 * rng.normal()), 0.01);
   const s0 = t * w;
   const l0 = Math.max(20, roundTo(5.65 * Math.sqrt(s0), 5));
-  return { shape: 'flat', diameter: null, thickness: t.toFixed(2), width: w.toFixed(2), gauge: String(l0), areaMm2: s0, gaugeLengthMm: l0, parallelLengthMm: l0 + 1.5 * Math.sqrt(s0) };
+  return flatSpecimen(t.toFixed(2), w.toFixed(2), String(l0), { areaMm2: s0, gaugeLengthMm: l0, parallelLengthMm: l0 + 1.5 * Math.sqrt(s0) });
 }
 
 /** The test's lab (per its channel), and its id: the lab's code, the year and the lab's running number. */
@@ -295,7 +299,9 @@ function writeCurveFile(millDir: string, curveRel: string, p: Planned, t: TestId
   const comments = [
     `${FABRICATOR} demo record (invented data)`,
     `test ${testId}, lab ${lab}, ${p.grade.label} from ${p.mill.name}`,
-    geo.shape === 'round' ? `round specimen d=${geo.diameter} ${unit}, L0=${geo.gauge} ${unit}` : `flat specimen ${geo.thickness} x ${geo.width} ${unit}, L0=${geo.gauge} ${unit}`,
+    geo.shape === 'round'
+      ? `round specimen d=${geo.diameter} ${unit}, L0=${geo.gauge} ${unit}`
+      : `flat specimen ${geo.thickness} x ${geo.width} ${unit}, L0=${geo.gauge} ${unit}`,
   ];
   if (p.layout === 'extensometer-removed') comments.push('extensometer removed before fracture');
   const meta = { testId, comments, areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, labName: lab, testedOn: isoOf(p.day) };
@@ -359,7 +365,9 @@ function manifestRow(p: Planned, t: TestIdentity, curveRel: string | null, given
 }
 
 /** Law parameters of the truth table: each law's own, blank for the others. */
-function lawColumns(law: SimulatedTest['draw']['law']): Pick<TruthRow, 'law' | 'modulus_gpa' | 'n_law' | 'k_mpa' | 'eps0' | 'eps_plateau_end' | 'sigma0_mpa' | 'm' | 'q_mpa' | 'b'> {
+type LawColumn = 'law' | 'modulus_gpa' | 'n_law' | 'k_mpa' | 'eps0' | 'eps_plateau_end' | 'sigma0_mpa' | 'm' | 'q_mpa' | 'b';
+
+function lawColumns(law: SimulatedTest['draw']['law']): Pick<TruthRow, LawColumn> {
   return {
     law: law.kind,
     modulus_gpa: fx(law.modulusMpa / 1000, 3),

@@ -172,7 +172,7 @@ async function loadReducedRows(db: Kysely<Database>, filter: PropertyFilter, loa
   }));
 }
 
-/** The contract view of a row (keys of DESIGN.md plus the failure reason, if any). */
+/** The contract view of a row (the contract keys, PROPERTY_ROW_KEYS, plus the failure reason, if any; docs/architecture.md). */
 export function contractView(r: PropertyRow): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const k of PROPERTY_ROW_KEYS) out[k] = r[k];
