@@ -21,7 +21,9 @@ export const command: CommandModule = {
     addPopulationOptions(addFilterOptions(
       program
         .command('curves')
-        .description('median and characteristic true stress – plastic strain curves per group, with idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
+        .description(
+          'median and characteristic true stress – plastic strain curves per group, with idealizations ' +
+          '(elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
         .option('--by <fields>', 'grouping (comma-separated)', 'grade')
         .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', String(HEADLINE_LEVEL.coverage))
         .option('--confidence <g>', 'confidence of the lower tolerance bound', String(HEADLINE_LEVEL.confidence))
@@ -30,12 +32,18 @@ export const command: CommandModule = {
         .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
         .option('--multilinear-points <n>', 'points of the multilinear idealization', '6')
         .option('--catalog <file>', 'grade catalog for the headline settings of the characteristic yield (default: the catalog of the last reduce)')
-        .option('--band <kind>', 'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band (the whole curve at once, critical value by simulation)', 'pointwise')
+        .option('--band <kind>',
+          'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band ' +
+          '(the whole curve at once, critical value by simulation)', 'pointwise')
         .option('--band-simulations <n>', 'Monte Carlo replicates for the simultaneous band’s critical value', '2000')
         .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder, with the FE tables')
         .option('--fe-unit <unit>', 'stress unit of the FE tables written with --out: MPa or ksi', 'MPa'),
     ))
-      .addHelpText('after', '\nCSV on stdout is a long table (the group fields, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution, the provenance and the band kind (--no-comments: none).\nWith --out, per group <group>.true-stress-plastic-strain.csv is the FE table: true stress against true plastic strain from 0, two columns, no comment lines, its provenance in <file>.provenance.json.')
+      .addHelpText('after',
+        '\nCSV on stdout is a long table (the group fields, plastic_strain, median_mpa, characteristic_mpa, ' +
+        'extrapolated) after # comment lines with the caution, the provenance and the band kind (--no-comments: ' +
+        'none).\nWith --out, per group <group>.true-stress-plastic-strain.csv is the FE table: true stress against ' +
+        'true plastic strain from 0, two columns, no comment lines, its provenance in <file>.provenance.json.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
         const { bandStatement, runCurves, writeCurveFiles, STRESS_UNITS } = await import('@fractile/pipeline');
         const g = globals(cmd);

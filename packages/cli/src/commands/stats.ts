@@ -24,16 +24,27 @@ export const command: CommandModule = {
     addPopulationOptions(addFilterOptions(
       program
         .command('stats')
-        .description('per group and property: n, mean, SD, CoV, percentiles, normal/lognormal/Weibull fits with Anderson–Darling, characteristic values with the headline design value and its rule, compliance on individual tests, values left out by reason')
-        .option('--by <fields>', 'grouping: grade, supplier, heat, lab, year, quarter, orientation, temperature_c, shape, yield_definition (comma-separated)', 'grade')
+        .description(
+          'per group and property: n, mean, SD, CoV, percentiles, normal/lognormal/Weibull fits with Anderson–Darling, ' +
+          'characteristic values with the headline design value and its rule, compliance on individual tests, values ' +
+          'left out by reason')
+        .option('--by <fields>',
+          'grouping: grade, supplier, heat, lab, year, quarter, orientation, temperature_c, shape, yield_definition ' +
+          '(comma-separated)', 'grade')
         .option('--property <keys...>', 'properties (default: all numeric keys)')
         .option('--coverage <p>', 'coverage of the headline tolerance limit', String(HEADLINE_LEVEL.coverage))
         .option('--confidence <g>', 'confidence of the headline tolerance limit', String(HEADLINE_LEVEL.confidence))
-        .option('--prior-v <cov>', 'prior coefficient of variation for the EN 1990 "V known" fractile of every selected property (overrides the catalog\'s prior_v; without either the method is not offered)')
+        .option('--prior-v <cov>',
+          'prior coefficient of variation for the EN 1990 "V known" fractile of every selected property (overrides the ' +
+          'catalog\'s prior_v; without either the method is not offered)')
         .option('--catalog <file>', 'grade catalog for the spec limits (default: the catalog of the last reduce)')
         .option('--correlations', 'print the Pearson and Spearman matrices per group instead'),
     ))
-      .addHelpText('after', '\nThe characteristic column is the headline (design) value: by default the lowest of the exact normal, lognormal and Weibull tolerance limits at the headline coverage and confidence (the grade catalog may name the method per property); the method and the rule are in the JSON (headline, headline_rule, headline_basis); the other methods are alternatives.')
+      .addHelpText('after',
+        '\nThe characteristic column is the headline (design) value: by default the lowest of the exact normal, ' +
+        'lognormal and Weibull tolerance limits at the headline coverage and confidence (the grade catalog may name ' +
+        'the method per property); the method and the rule are in the JSON (headline, headline_rule, headline_basis); ' +
+        'the other methods are alternatives.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
         const { runAggregate, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
