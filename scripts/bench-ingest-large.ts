@@ -7,8 +7,9 @@
  *
  *   npm run bench:ingest-large -- [--rows 100000] [--points 2000000] [--skip-rows] [--skip-curve]
  *
- * The inputs are invented (summary values; a linear-elastic then Hollomon curve, as in
- * packages/ingest/src/bench-data.ts) and written under bench-out/.
+ * The inputs are invented (summary values; one linear-elastic then Hollomon curve, streamed line
+ * by line because of its length, which the benchmark set of seed-demo cannot) and written under
+ * bench-out/.
  */
 import { spawnSync } from 'node:child_process';
 import { cpSync, existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';

@@ -12,7 +12,8 @@
  */
 import { availableParallelism, loadavg } from 'node:os';
 import { Piscina } from 'piscina';
-import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, plateauCurve, type ReduceSettings } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, type ReduceSettings } from '@fractile/curves';
+import { hollomonCurve, plateauCurve } from '@fractile/curves/testing';
 import { channelBuffers, type ReduceTask } from '@fractile/pipeline';
 import { peakRssMb } from './bench-util.ts';
 import { build, DIST, isFresh } from '../packages/cli/build.mjs';

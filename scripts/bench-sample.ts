@@ -5,7 +5,7 @@
  * curves drawn from it; the planning table (10, 20, 50 added tests, 2,000 replicates) of the
  * headline rule on 300 values. Prints the time of each step and the peak RSS.
  */
-import { seededRandom } from '@fractile/curves';
+import { seededRandom } from '@fractile/curves/testing';
 import { aggregateRows, distributionModels } from '@fractile/pipeline';
 import { fitCurveModel, fitLognormal, planSampleSize, sampleCurves } from '@fractile/stats';
 import { normal, peakRssMb, syntheticRows, time } from './bench-util.ts';

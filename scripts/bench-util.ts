@@ -1,6 +1,6 @@
 /** Small helpers shared by the benchmarks: a seeded generator, timing, and peak memory. */
 import type { PropertyRow } from '@fractile/pipeline';
-import { seededRandom } from '@fractile/curves';
+import { seededRandom } from '@fractile/curves/testing';
 
 export function normal(u: () => number): () => number {
   return () => Math.sqrt(-2 * Math.log(1 - u())) * Math.cos(2 * Math.PI * u());

@@ -1,6 +1,6 @@
 /**
  * The `fractile` command as a user meets it: help on every command, JSON on stdout and nothing
- * else there, the contract keys of DESIGN.md, and bad input named by file, line and column.
+ * else there, the contract keys (docs/architecture.md, README "What is computed"), and bad input named by file, line and column.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -65,7 +65,7 @@ describe('fractile command line', () => {
     const keys = 'lab, test_id, grade, supplier, heat, tested_on, modulus_gpa, rp02_mpa, rt05_mpa, reh_mpa, rel_mpa, ype_pct, rm_mpa, ag_pct, agt_pct, a_pct, yt_ratio, n_value, k_mpa, yield_mpa, yield_definition, shape_class, flags'.split(', ');
     expect(rows.length).toBeGreaterThan(30);
     for (const k of keys) expect(rows[0]).toHaveProperty(k);
-    // a continuous curve has no upper yield point: null, not a number (DESIGN.md)
+    // a continuous curve has no upper yield point: null, not a number (docs/architecture.md: discontinuous-yield.ts)
     const continuous = rows.find((x) => x.shape_class === 'continuous');
     expect(continuous?.reh_mpa).toBeNull();
     // plain mode: the header is the first line (spreadsheet import); the default has the comment block above it

@@ -17,7 +17,7 @@ import { fileURLToPath } from 'node:url';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
 import { openStore } from '@fractile/store';
-import { writeBenchData } from '../packages/ingest/src/bench-data.ts';
+import { generateBenchmarkSet } from '@fractile/seed-demo';
 import { createEmbeddedFolder, createServerDatabase } from './support/databases.ts';
 
 const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
@@ -28,7 +28,8 @@ let parts: string[];
 
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), 'fractile-conc-'));
-  const all = await writeBenchData(dir, { tests: TESTS, points: 400, seed: 5 });
+  const b = generateBenchmarkSet({ outDir: dir, tests: TESTS, points: 400, seed: 5 });
+  const all = path.join(b.outDir, b.manifest);
   const [header, ...rows] = readFileSync(all, 'utf8').trimEnd().split('\n');
   parts = [[0, 30], [20, 50], [40, 60]].map(([a, b], i) => {
     const p = path.join(dir, `part${i}.csv`);

@@ -5,7 +5,8 @@
  * the trade (REFERENCES.md, common practice).
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, plateauCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, reduceCurve } from '@fractile/curves';
+import { hollomonCurve, plateauCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

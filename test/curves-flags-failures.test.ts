@@ -4,7 +4,8 @@
  * practice), extensometer removed early, slipping, noise, crosshead.
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, FAILURE_CODES, FLAGS, hollomonCurve, plateauCurve, rambergOsgoodCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, FAILURE_CODES, FLAGS, reduceCurve } from '@fractile/curves';
+import { hollomonCurve, plateauCurve, rambergOsgoodCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

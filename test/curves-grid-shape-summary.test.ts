@@ -4,9 +4,8 @@
  * records carried into the same property keys.
  */
 import { describe, expect, it } from 'vitest';
-import {
-  DEFAULT_GRID, DEFAULT_REDUCE_SETTINGS, bilinearCurve, hollomonCurve, plateauCurve, propertiesFromSummary, rambergOsgoodCurve, reduceCurve,
-} from '@fractile/curves';
+import { DEFAULT_GRID, DEFAULT_REDUCE_SETTINGS, propertiesFromSummary, reduceCurve } from '@fractile/curves';
+import { bilinearCurve, hollomonCurve, plateauCurve, rambergOsgoodCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

@@ -4,7 +4,8 @@
  * Rm = 474.7 MPa and Agt = 22.14 %). The ISO 10275 log–log fit returns n and K of the law.
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, reduceCurve } from '@fractile/curves';
+import { hollomonCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

@@ -4,9 +4,8 @@
  * parameters and residual. SciPy is a required test dependency: its absence fails the test.
  */
 import { describe, expect, it } from 'vitest';
-import {
-  evalHollomon, evalRambergOsgood, evalSwift, evalVoce, fitHollomon, fitRambergOsgood, fitSwift, fitVoce, seededNormal,
-} from '@fractile/curves';
+import { evalHollomon, evalRambergOsgood, evalSwift, evalVoce, fitHollomon, fitRambergOsgood, fitSwift, fitVoce } from '@fractile/curves';
+import { seededNormal } from '@fractile/curves/testing';
 import { runPython, scipyVersion } from './support/scipy.ts';
 
 const PY = `

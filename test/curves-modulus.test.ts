@@ -5,7 +5,8 @@
  * practice; the bounds are the issue's).
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, plateauCurve, rambergOsgoodCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, reduceCurve } from '@fractile/curves';
+import { plateauCurve, rambergOsgoodCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

@@ -5,8 +5,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, plateauCurve, rambergOsgoodCurve, reduceCurve } from '@fractile/curves';
-import type { ReduceOutcome, SyntheticCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, reduceCurve } from '@fractile/curves';
+import { hollomonCurve, plateauCurve, rambergOsgoodCurve } from '@fractile/curves/testing';
+import type { ReduceOutcome } from '@fractile/curves';
+import type { SyntheticCurve } from '@fractile/curves/testing';
 
 const common = fc.record({
   eMpa: fc.double({ min: 60_000, max: 220_000, noNaN: true }),

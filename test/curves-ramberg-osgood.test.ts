@@ -4,7 +4,8 @@
  * crosses e = 0.005.
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, offsetYield, rambergOsgoodCurve, rambergOsgoodStress, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, offsetYield, rambergOsgoodStress, reduceCurve } from '@fractile/curves';
+import { rambergOsgoodCurve } from '@fractile/curves/testing';
 
 const S = DEFAULT_REDUCE_SETTINGS;
 

@@ -7,10 +7,10 @@
  * optimum has a negative pre-strain ε0, which the law does not allow).
  */
 import { describe, expect, it } from 'vitest';
-import {
-  DEFAULT_REDUCE_SETTINGS, fitHollomon, fitRambergOsgood, fitSwift, fitVoce, hollomonCurve, plateauCurve, rambergOsgoodCurve, reduceCurve,
-} from '@fractile/curves';
-import type { ReduceResult, SyntheticCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, fitHollomon, fitRambergOsgood, fitSwift, fitVoce, reduceCurve } from '@fractile/curves';
+import { hollomonCurve, plateauCurve, rambergOsgoodCurve } from '@fractile/curves/testing';
+import type { ReduceResult } from '@fractile/curves';
+import type { SyntheticCurve } from '@fractile/curves/testing';
 import { runPython } from './support/scipy.ts';
 
 const PY = `

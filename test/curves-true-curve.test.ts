@@ -3,7 +3,8 @@
  * results of the laws").
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, engineeringToTrue, hollomonCurve, reduceCurve, trueCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, engineeringToTrue, reduceCurve, trueCurve } from '@fractile/curves';
+import { hollomonCurve } from '@fractile/curves/testing';
 
 describe('true stress and strain', () => {
   it('reproduces the worked example: 400 MPa at e = 0.10 gives 440 MPa and 0.09531', () => {

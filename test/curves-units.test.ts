@@ -4,7 +4,8 @@
  * 4.4482216152605 N).
  */
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_REDUCE_SETTINGS, IN_MM, LBF_N, channelToCanonical, plateauCurve, reduceCurve, toCanonical, unitFor } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, IN_MM, LBF_N, channelToCanonical, reduceCurve, toCanonical, unitFor } from '@fractile/curves';
+import { plateauCurve } from '@fractile/curves/testing';
 import type { TestProperties } from '@fractile/curves';
 
 function close(a: TestProperties, b: TestProperties): void {

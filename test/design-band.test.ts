@@ -1,7 +1,7 @@
 // Characteristic curves as bounds: the largest non-decreasing curve below the pointwise bound, and
 // the simultaneous band with its joint confidence measured by Monte Carlo. Sources beside each check.
 import { describe, expect, it } from 'vitest';
-import { seededNormal } from '@fractile/curves';
+import { seededNormal } from '@fractile/curves/testing';
 import { isotonicNonDecreasing } from '@fractile/stats';
 import {
   characteristicCurve,

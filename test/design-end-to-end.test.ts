@@ -1,5 +1,6 @@
 // From synthetic tensile records through per-test reduction to the characteristic curve.
-import { DEFAULT_REDUCE_SETTINGS, hollomonCurve, reduceCurve } from '@fractile/curves';
+import { DEFAULT_REDUCE_SETTINGS, reduceCurve } from '@fractile/curves';
+import { hollomonCurve } from '@fractile/curves/testing';
 import { describe, expect, it } from 'vitest';
 import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type TestGridCurve } from '../packages/pipeline/src/design/index.ts';
 import { hollomonAtPlastic, normals, PROV, scipyLowerBound } from './design-fixtures.ts';

@@ -5,7 +5,6 @@ import {
   characteristicCurve,
   CURVE_CSV_COLUMNS,
   DEFAULT_DESIGN_OPTIONS,
-  DESIGN_CAUTION,
   designCurvesToJson,
   designCurveToCsv,
   designCurveToJson,
@@ -19,6 +18,7 @@ import {
   type DesignCurve,
   type DesignOptions,
 } from '../packages/pipeline/src/design/index.ts';
+import { DESIGN_VALUE_CAUTION } from '../packages/report/src/caution.ts';
 import { parse } from 'csv-parse/sync';
 import { grid, lawCurve, normals, PROV, pythonIdsSha256 } from './design-fixtures.ts';
 
@@ -55,7 +55,7 @@ describe('curve CSV', () => {
   it('carries the caution in its header and the contract columns', () => {
     const text = designCurveToCsv(c);
     const lines = text.split('\n');
-    expect(lines.some((l) => l.startsWith('#') && l.includes(DESIGN_CAUTION))).toBe(true);
+    expect(lines.some((l) => l.startsWith('#') && l.includes(DESIGN_VALUE_CAUTION))).toBe(true);
     expect(lines.find((l) => !l.startsWith('#'))).toBe(CURVE_CSV_COLUMNS.join(','));
     expect(CURVE_CSV_COLUMNS).toEqual(['plastic_strain', 'median_mpa', 'characteristic_mpa', 'extrapolated']);
   });
@@ -82,7 +82,7 @@ describe('idealized CSV', () => {
     if (!back.ok) return;
     expect(back.value.idealized).toEqual(c.idealized);
     expect(back.value.provenance).toEqual(c.provenance);
-    expect(idealizedToCsv(c)).toContain(DESIGN_CAUTION);
+    expect(idealizedToCsv(c)).toContain(DESIGN_VALUE_CAUTION);
   });
 });
 
@@ -95,7 +95,7 @@ describe('engineering CSV', () => {
     expect(back.value.engineering).toEqual(c.engineering);
     expect(back.value.plastic_strain).toEqual(c.plastic_strain);
     expect(back.value.extrapolated).toEqual(c.extrapolated);
-    expect(engineeringToCsv(c)).toContain(DESIGN_CAUTION);
+    expect(engineeringToCsv(c)).toContain(DESIGN_VALUE_CAUTION);
   });
 });
 
@@ -147,7 +147,7 @@ describe('provenance', () => {
     expect(c.provenance.n_tests).toBe(18);
     expect(c.provenance.code_version).toBe(PROV.code_version);
     expect(c.provenance.generated_at).toBe(PROV.generated_at);
-    expect(c.provenance.caution).toBe(DESIGN_CAUTION);
+    expect(c.provenance.caution).toBe(DESIGN_VALUE_CAUTION);
   });
 
   it('changes the settings hash with the settings, not with their order', () => {

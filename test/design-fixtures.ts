@@ -6,8 +6,8 @@
 import { execFileSync } from 'node:child_process';
 import type { TestGridCurve } from '../packages/pipeline/src/design/index.ts';
 
-export { seededRandom as rng } from '@fractile/curves';
-import { seededRandom as rng } from '@fractile/curves';
+export { seededRandom as rng } from '@fractile/curves/testing';
+import { seededRandom as rng } from '@fractile/curves/testing';
 
 /** Hollomon in total true strain, σ = K(εp + σ/E)^n, solved for σ by bisection (law, exact). */
 export function hollomonAtPlastic(k: number, n: number, eMpa: number, ep: number): number {

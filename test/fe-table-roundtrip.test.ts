@@ -18,7 +18,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { parse } from 'csv-parse/sync';
 import { afterAll, describe, expect, it } from 'vitest';
-import { feFileName, writeCurveFiles, writeFeTable } from '@fractile/pipeline';
+import { writeCurveFiles } from '@fractile/pipeline';
+import { feFileName, writeFeTable } from '../packages/pipeline/src/exports/curve-files.ts';
 import { characteristicCurve, DEFAULT_DESIGN_OPTIONS, type DesignCurve } from '../packages/pipeline/src/design/index.ts';
 import { grid, lawCurve, normals, PROV } from './design-fixtures.ts';
 

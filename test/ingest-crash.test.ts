@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
-import { writeBenchData } from '../packages/ingest/src/bench-data.ts';
+import { generateBenchmarkSet } from '@fractile/seed-demo';
 import { openStore } from '@fractile/store';
 import { testTargets } from './support/databases.ts';
 
@@ -72,7 +72,8 @@ async function runStatuses(target: string): Promise<string[]> {
 describe.each(testTargets())('ingest killed mid-batch on $name', (tt) => {
   it('leaves whole tests only, and a re-run matches one clean run', async () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'fractile-crash-'));
-    const manifest = await writeBenchData(dir, { tests: TESTS, points: 1000, seed: 7 });
+    const b = generateBenchmarkSet({ outDir: dir, tests: TESTS, points: 1000, seed: 7 });
+    const manifest = path.join(b.outDir, b.manifest);
     const crashed = await tt.create();
     const clean = await tt.create();
     try {

@@ -2,14 +2,14 @@
  * Reading curve files in worker threads stores exactly what reading them in-process stores
  * (same tests, content hashes and curve values), including a rejection found in a worker.
  */
-import { appendFileSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { appendFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { sql } from 'kysely';
 import { ingestManifests } from '@fractile/ingest';
 import type { Store } from '@fractile/store';
-import { writeBenchData } from '../packages/ingest/src/bench-data.ts';
+import { generateBenchmarkSet } from '@fractile/seed-demo';
 import { testDatabases } from './support/databases.ts';
 
 async function dump(store: Store) {
@@ -21,10 +21,17 @@ async function dump(store: Store) {
 describe.each(testDatabases())('curve workers on $name', (tdb) => {
   it('give the same stored result as in-process reading', async () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'fractile-workers-'));
-    const manifest = await writeBenchData(dir, { tests: 70, points: 100, seed: 3 });
+    const set = generateBenchmarkSet({ outDir: dir, tests: 70, points: 100, seed: 3 });
+    const manifest = path.join(set.outDir, set.manifest);
     // one broken curve: its rejection must come back from the worker with its location
     writeFileSync(path.join(dir, 'curves', 'BROKEN.csv'), 'time[s],force[kN],extension[mm]\n0,1,0\n1,x,0.1\n');
-    appendFileSync(manifest, 'BROKEN,bench,G0,Supplier A,H0,2024-01-01,round,10,50,curves/BROKEN.csv\n');
+    // the first record's row with the broken curve in its place (columns as the manifest's header)
+    const [header, first] = readFileSync(manifest, 'utf8').split('\n');
+    const cols = header.split(',');
+    const cells = first.split(',');
+    cells[cols.indexOf('test_id')] = 'BROKEN';
+    cells[cols.indexOf('curve')] = 'curves/BROKEN.csv';
+    appendFileSync(manifest, cells.join(',') + '\n');
     const a = await tdb.open();
     const b = await tdb.open();
     try {

@@ -21,7 +21,7 @@ import type { CurveLayout, GradeDef, MillDef } from './scenario.ts';
 import { simulateTest } from './simulate-test.ts';
 import type { SimulatedTest } from './simulate-test.ts';
 import { METRIC_HEADER, writeProblemFiles } from './problem-files.ts';
-import type { ExpectedRejection } from './problem-files.ts';
+import type { ExpectedRejection, ManifestRow } from './problem-files.ts';
 
 export interface DemoOptions {
   outDir: string;
@@ -131,6 +131,8 @@ const TRUTH_HEADER = [
   'extensometer_removed_at_strain',
   'yield_shift_mpa',
 ] as const;
+/** A row of the truth table, keyed by its columns: TRUTH_HEADER is the one spec of names and order. */
+type TruthRow = Record<(typeof TRUTH_HEADER)[number], Cell>;
 
 const IMPERIAL_HEADER = METRIC_HEADER.map((h) => h.replace('[mm2]', '[in2]').replace('[mm]', '[in]'));
 
@@ -221,27 +223,212 @@ interface Geometry {
   parallelLengthMm: number;
 }
 
+type SpecimenSize = Pick<Geometry, 'areaMm2' | 'gaugeLengthMm' | 'parallelLengthMm'>;
+const roundSpecimen = (diameter: string, gauge: string, size: SpecimenSize): Geometry => ({ shape: 'round', diameter, thickness: null, width: null, gauge, ...size });
+const flatSpecimen = (thickness: string, width: string, gauge: string, size: SpecimenSize): Geometry => ({ shape: 'flat', diameter: null, thickness, width, gauge, ...size });
+
 function geometry(p: Planned, rng: Rng): Geometry {
   if (p.channel === 'imperial') {
     if (p.product === 'bar') {
       const d = roundTo(0.5 * (1 + 0.001 * rng.normal()), 0.001);
       const dMm = d * IN_MM;
-      return { shape: 'round', diameter: d.toFixed(3), thickness: null, width: null, gauge: '2.000', areaMm2: (Math.PI * dMm * dMm) / 4, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.25 * IN_MM };
+      return roundSpecimen(d.toFixed(3), '2.000', { areaMm2: (Math.PI * dMm * dMm) / 4, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.25 * IN_MM });
     }
     const t = roundTo(rng.pick([0.375, 0.5, 0.625, 0.75]) * (1 + 0.003 * rng.normal()), 0.001);
     const w = roundTo(rng.pick([1.0, 1.5]) * (1 + 0.002 * rng.normal()), 0.001);
-    return { shape: 'flat', diameter: null, thickness: t.toFixed(3), width: w.toFixed(3), gauge: '2.000', areaMm2: t * w * IN_MM * IN_MM, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.5 * IN_MM };
+    return flatSpecimen(t.toFixed(3), w.toFixed(3), '2.000', { areaMm2: t * w * IN_MM * IN_MM, gaugeLengthMm: 2 * IN_MM, parallelLengthMm: 2.5 * IN_MM });
   }
   if (p.product === 'bar') {
     const d = roundTo(p.nominalMm * (1 + 0.001 * rng.normal()), 0.01);
     const l0 = 5 * p.nominalMm;
-    return { shape: 'round', diameter: d.toFixed(2), thickness: null, width: null, gauge: String(l0), areaMm2: (Math.PI * d * d) / 4, gaugeLengthMm: l0, parallelLengthMm: l0 + d };
+    return roundSpecimen(d.toFixed(2), String(l0), { areaMm2: (Math.PI * d * d) / 4, gaugeLengthMm: l0, parallelLengthMm: l0 + d });
   }
   const t = roundTo(p.nominalMm * (1 + 0.003 * rng.normal()), 0.01);
   const w = roundTo(rng.pick([20, 25, 30]) * (1 + 0.002 * rng.normal()), 0.01);
   const s0 = t * w;
   const l0 = Math.max(20, roundTo(5.65 * Math.sqrt(s0), 5));
-  return { shape: 'flat', diameter: null, thickness: t.toFixed(2), width: w.toFixed(2), gauge: String(l0), areaMm2: s0, gaugeLengthMm: l0, parallelLengthMm: l0 + 1.5 * Math.sqrt(s0) };
+  return flatSpecimen(t.toFixed(2), w.toFixed(2), String(l0), { areaMm2: s0, gaugeLengthMm: l0, parallelLengthMm: l0 + 1.5 * Math.sqrt(s0) });
+}
+
+/** The test's lab (per its channel), and its id: the lab's code, the year and the lab's running number. */
+function identify(p: Planned, seqByLab: Map<string, number>): { lab: string; testId: string } {
+  const lab = p.channel === 'imperial' ? p.mill.imperial!.lab : p.channel === 'foreign' ? p.mill.foreign!.lab : p.mill.lab;
+  const code = p.channel === 'foreign' ? p.mill.foreign!.code : p.channel === 'imperial' ? `${p.mill.code}W` : p.mill.code;
+  const seq = (seqByLab.get(lab) ?? 0) + 1;
+  seqByLab.set(lab, seq);
+  return { lab, testId: `${code}-${String(yearOf(p.day)).slice(2)}-${String(seq).padStart(5, '0')}` };
+}
+
+/**
+ * The yield shift of the drifting supplier and grade (scenario.ts DRIFT): growing linearly from
+ * 0 at the drift start to `yieldShiftSd` total standard deviations at the window end; null for a
+ * test outside the drift.
+ */
+function driftShift(p: Planned, driftStart: number, windowEnd: number): number | null {
+  const g = p.grade;
+  if (p.mill.name !== DRIFT.supplier || g.label !== DRIFT.grade || p.day < driftStart) return null;
+  const sdTotal = g.strengthMeanMpa * Math.hypot(g.covHeat, g.covWithin);
+  return DRIFT.yieldShiftSd * sdTotal * ((p.day - driftStart) / (windowEnd - driftStart));
+}
+
+/** Draws the test's strength (mill offset, heat effect, within-heat scatter) and simulates it. */
+function simulatePlanned(p: Planned, geo: Geometry, yieldShift: number, points: number, rng: Rng): SimulatedTest {
+  const g = p.grade;
+  const strength = g.strengthMeanMpa * (1 + p.mill.strengthOffset) * (1 + p.heatEffect) * (1 + g.covWithin * rng.normal());
+  return simulateTest(
+    g,
+    strength,
+    yieldShift,
+    DRIFT.tensileFraction * yieldShift,
+    { areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, parallelLengthMm: geo.parallelLengthMm },
+    { withSignal: !p.summary, points, loop: p.loop, removeExtensometer: p.layout === 'extensometer-removed' },
+    rng,
+  );
+}
+
+interface TestIdentity {
+  lab: string;
+  testId: string;
+  geo: Geometry;
+}
+
+/** Writes the test's curve file (in its layout, with its comment lines) under the mill's folder; returns its path there. */
+function writeCurveFile(millDir: string, curveRel: string, p: Planned, t: TestIdentity & { sim: SimulatedTest }, buffer: AsciiBuffer): string {
+  const { geo, lab, testId } = t;
+  const unit = p.channel === 'imperial' ? 'in' : 'mm';
+  const comments = [
+    `${FABRICATOR} demo record (invented data)`,
+    `test ${testId}, lab ${lab}, ${p.grade.label} from ${p.mill.name}`,
+    geo.shape === 'round'
+      ? `round specimen d=${geo.diameter} ${unit}, L0=${geo.gauge} ${unit}`
+      : `flat specimen ${geo.thickness} x ${geo.width} ${unit}, L0=${geo.gauge} ${unit}`,
+  ];
+  if (p.layout === 'extensometer-removed') comments.push('extensometer removed before fracture');
+  const meta = { testId, comments, areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, labName: lab, testedOn: isoOf(p.day) };
+  writeFileSync(join(millDir, curveRel), formatCurveCsv(t.sim.signal!, p.layout, meta, buffer));
+  return curveRel;
+}
+
+interface GivenValues {
+  /** the mill's certificate accompanies the curve */
+  certificate: boolean;
+  /** the manifest carries given values (summary-only record or certificate) */
+  given: boolean;
+  values: { y: number; rm: number; ag: string; a: string } | null;
+}
+
+/** The values a summary-only record or a certificate gives: the truth rounded, a certificate's with its scatter and bias. */
+function givenValues(p: Planned, sim: SimulatedTest, certRng: Rng): GivenValues {
+  const t = sim.curve.truth;
+  const yieldTruth = truthYield(sim, p.grade);
+  const certificate = sim.signal !== null && p.day >= dayOf(CERTIFICATES.from) && certRng.chance(CERTIFICATES.share);
+  const cert = (x: number, bias = 0) => x * (1 + CERTIFICATES.scatter * certRng.normal()) + bias;
+  const values = p.summary
+    ? { y: Math.round(yieldTruth), rm: Math.round(t.rmMpa), ag: roundTo(t.agPct, 0.5).toFixed(1), a: roundTo(t.aPct, 0.5).toFixed(1) }
+    : certificate
+      ? {
+          y: Math.round(cert(yieldTruth, CERTIFICATES.yieldBiasMpa[p.mill.key] ?? 0)),
+          rm: Math.round(cert(t.rmMpa)),
+          ag: roundTo(cert(t.agPct), 0.5).toFixed(1),
+          a: roundTo(cert(t.aPct), 0.5).toFixed(1),
+        }
+      : null;
+  return { certificate, given: p.summary || certificate, values };
+}
+
+/** The test's manifest row, keyed by the manifest's columns (METRIC_HEADER; the imperial header has the same order). */
+function manifestRow(p: Planned, t: TestIdentity, curveRel: string | null, given: GivenValues, temperature: number): ManifestRow {
+  const { geo } = t;
+  const { values } = given;
+  return {
+    test_id: t.testId,
+    lab: t.lab,
+    grade: p.grade.label,
+    supplier: p.mill.name,
+    heat: p.heat,
+    tested_on: isoOf(p.day),
+    shape: geo.shape,
+    'diameter[mm]': geo.diameter,
+    'thickness[mm]': geo.thickness,
+    'width[mm]': geo.width,
+    'area[mm2]': null,
+    'gauge_length[mm]': geo.gauge,
+    orientation: p.orientation,
+    'temperature[C]': temperature,
+    curve: curveRel,
+    'yield[MPa]': values?.y ?? null,
+    yield_definition: given.given ? p.grade.yieldDefinition : null,
+    'tensile[MPa]': values?.rm ?? null,
+    'uniform_elongation[%]': values?.ag ?? null,
+    'elongation[%]': values?.a ?? null,
+  };
+}
+
+/** Law parameters of the truth table: each law's own, blank for the others. */
+type LawColumn = 'law' | 'modulus_gpa' | 'n_law' | 'k_mpa' | 'eps0' | 'eps_plateau_end' | 'sigma0_mpa' | 'm' | 'q_mpa' | 'b';
+
+function lawColumns(law: SimulatedTest['draw']['law']): Pick<TruthRow, LawColumn> {
+  return {
+    law: law.kind,
+    modulus_gpa: fx(law.modulusMpa / 1000, 3),
+    n_law: law.kind === 'plateau-swift' ? fx(law.n, 5) : law.kind === 'ramberg-osgood' ? fx(1 / law.m, 5) : null,
+    k_mpa: law.kind === 'plateau-swift' ? fx(law.kMpa, 3) : null,
+    eps0: law.kind === 'plateau-swift' ? fx(law.eps0, 6) : null,
+    eps_plateau_end: law.kind === 'plateau-swift' ? fx(law.epsPlateauEnd, 6) : null,
+    sigma0_mpa: law.kind === 'plateau-swift' ? null : fx(law.sigma0Mpa, 3),
+    m: law.kind === 'ramberg-osgood' ? fx(law.m, 5) : null,
+    q_mpa: law.kind === 'voce' ? fx(law.qMpa, 3) : null,
+    b: law.kind === 'voce' ? fx(law.b, 5) : null,
+  };
+}
+
+/** The test's row of the truth table: the exact properties of the law its curve came from, keyed by TRUTH_HEADER. */
+function truthRow(p: Planned, t: TestIdentity & { sim: SimulatedTest }, manifest: string, curveRel: string | null, yieldShift: number): TruthRow {
+  const { geo, sim } = t;
+  const x = sim.curve.truth;
+  return {
+    lab: t.lab,
+    test_id: t.testId,
+    supplier: p.mill.name,
+    grade: p.grade.label,
+    heat: p.heat,
+    tested_on: isoOf(p.day),
+    manifest,
+    curve: curveRel === null ? null : `${p.mill.key}/${curveRel}`,
+    layout: p.summary ? 'summary' : p.layout,
+    ...lawColumns(sim.draw.law),
+    reh_mpa: fx(x.rehMpa, 3),
+    rel_mpa: fx(x.relMpa, 3),
+    rel_min_mpa: fx(x.relMinMpa, 3),
+    rp02_mpa: fx(x.rp02Mpa, 3),
+    rt05_mpa: fx(x.rt05Mpa, 3),
+    rm_mpa: fx(x.rmMpa, 3),
+    ag_pct: fx(x.agPct, 4),
+    agt_pct: fx(x.agtPct, 4),
+    a_pct: fx(x.aPct, 4),
+    ype_pct: fx(x.ypePct, 4),
+    yield_mpa: fx(truthYield(sim, p.grade), 3),
+    yield_definition: p.grade.yieldDefinition,
+    area_mm2: fx(geo.areaMm2, 4),
+    gauge_length_mm: fx(geo.gaugeLengthMm, 3),
+    loop_at_strain: fx(sim.loopAtStrain, 6),
+    extensometer_removed_at_strain: fx(sim.extensometerRemovedAtStrain, 6),
+    yield_shift_mpa: fx(yieldShift, 3),
+  };
+}
+
+function countTest(counts: DemoCounts, p: Planned, sim: SimulatedTest, certificate: boolean, drifting: boolean): void {
+  if (drifting) counts.drifting++;
+  if (sim.signal) {
+    counts.curveFiles++;
+    counts.curveTests++;
+    counts.byLayout[p.layout]++;
+    if (p.loop) counts.unloadReload++;
+  } else counts.summaryOnly++;
+  if (certificate) counts.certificates++;
+  counts.tests++;
+  counts.bySupplier[p.mill.name] = (counts.bySupplier[p.mill.name] ?? 0) + 1;
+  counts.byGrade[p.grade.label] = (counts.byGrade[p.grade.label] ?? 0) + 1;
 }
 
 /** Removes what an earlier run wrote; refuses a non-empty folder that is not a demo folder. */
@@ -317,133 +504,20 @@ export function generateDemo(opts: DemoOptions): DemoManifest {
 
   planned.forEach((p, index) => {
     const rng = new Rng(mixSeed(seed, index + 1));
-    const lab = p.channel === 'imperial' ? p.mill.imperial!.lab : p.channel === 'foreign' ? p.mill.foreign!.lab : p.mill.lab;
-    const code = p.channel === 'foreign' ? p.mill.foreign!.code : p.channel === 'imperial' ? `${p.mill.code}W` : p.mill.code;
-    const seq = (seqByLab.get(lab) ?? 0) + 1;
-    seqByLab.set(lab, seq);
-    const testId = `${code}-${String(yearOf(p.day)).slice(2)}-${String(seq).padStart(5, '0')}`;
-    const g = p.grade;
+    const { lab, testId } = identify(p, seqByLab);
     const geo = geometry(p, rng);
-    const strength = g.strengthMeanMpa * (1 + p.mill.strengthOffset) * (1 + p.heatEffect) * (1 + g.covWithin * rng.normal());
-    let yieldShift = 0;
-    if (p.mill.name === DRIFT.supplier && g.label === DRIFT.grade && p.day >= driftStart) {
-      const sdTotal = g.strengthMeanMpa * Math.hypot(g.covHeat, g.covWithin);
-      yieldShift = DRIFT.yieldShiftSd * sdTotal * ((p.day - driftStart) / (windowEnd - driftStart));
-      counts.drifting++;
-    }
-    const sim = simulateTest(
-      g,
-      strength,
-      yieldShift,
-      DRIFT.tensileFraction * yieldShift,
-      { areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, parallelLengthMm: geo.parallelLengthMm },
-      { withSignal: !p.summary, points, loop: p.loop, removeExtensometer: p.layout === 'extensometer-removed' },
-      rng,
-    );
+    const yieldShift = driftShift(p, driftStart, windowEnd);
+    const sim = simulatePlanned(p, geo, yieldShift ?? 0, points, rng);
     const m = manifestFor(p);
-    const t = sim.curve.truth;
-    const yieldTruth = truthYield(sim, g);
-    let curveRel: string | null = null;
-    if (sim.signal) {
-      curveRel = `${m.curveDir}/${testId}.csv`;
-      const comments = [
-        `${FABRICATOR} demo record (invented data)`,
-        `test ${testId}, lab ${lab}, ${g.label} from ${p.mill.name}`,
-        geo.shape === 'round'
-          ? `round specimen d=${geo.diameter} ${p.channel === 'imperial' ? 'in' : 'mm'}, L0=${geo.gauge} ${p.channel === 'imperial' ? 'in' : 'mm'}`
-          : `flat specimen ${geo.thickness} x ${geo.width} ${p.channel === 'imperial' ? 'in' : 'mm'}, L0=${geo.gauge} ${p.channel === 'imperial' ? 'in' : 'mm'}`,
-      ];
-      if (p.layout === 'extensometer-removed') comments.push('extensometer removed before fracture');
-      writeFileSync(
-        join(outDir, p.mill.key, curveRel),
-        formatCurveCsv(sim.signal, p.layout, { testId, comments, areaMm2: geo.areaMm2, gaugeLengthMm: geo.gaugeLengthMm, labName: lab, testedOn: isoOf(p.day) }, curveBuffer),
-      );
-      counts.curveFiles++;
-      counts.curveTests++;
-      counts.byLayout[p.layout]++;
-      if (p.loop) counts.unloadReload++;
-    } else counts.summaryOnly++;
+    const curveRel = sim.signal ? writeCurveFile(join(outDir, p.mill.key), `${m.curveDir}/${testId}.csv`, p, { lab, testId, geo, sim }, curveBuffer) : null;
     // the mill's own certificate beside some curves, from a stream of its own (scenario.ts CERTIFICATES)
-    const certRng = new Rng(mixSeed(seed ^ CERTIFICATES.stream, index + 1));
-    const certificate = sim.signal !== null && p.day >= dayOf(CERTIFICATES.from) && certRng.chance(CERTIFICATES.share);
-    if (certificate) counts.certificates++;
-    const cert = (x: number, bias = 0) => x * (1 + CERTIFICATES.scatter * certRng.normal()) + bias;
-    const given = p.summary || certificate;
-    const values = p.summary
-      ? { y: Math.round(yieldTruth), rm: Math.round(t.rmMpa), ag: roundTo(t.agPct, 0.5).toFixed(1), a: roundTo(t.aPct, 0.5).toFixed(1) }
-      : certificate
-        ? {
-            y: Math.round(cert(yieldTruth, CERTIFICATES.yieldBiasMpa[p.mill.key] ?? 0)),
-            rm: Math.round(cert(t.rmMpa)),
-            ag: roundTo(cert(t.agPct), 0.5).toFixed(1),
-            a: roundTo(cert(t.aPct), 0.5).toFixed(1),
-          }
-        : null;
-    const row: Cell[] = [
-      testId,
-      lab,
-      g.label,
-      p.mill.name,
-      p.heat,
-      isoOf(p.day),
-      geo.shape,
-      geo.diameter,
-      geo.thickness,
-      geo.width,
-      null,
-      geo.gauge,
-      p.orientation,
-      rng.int(18, 24),
-      curveRel,
-      values?.y ?? null,
-      given ? g.yieldDefinition : null,
-      values?.rm ?? null,
-      values?.ag ?? null,
-      values?.a ?? null,
-    ];
-    m.writer.write(row);
-    const law = sim.draw.law;
-    truth.write([
-      lab,
-      testId,
-      p.mill.name,
-      g.label,
-      p.heat,
-      isoOf(p.day),
-      m.rel,
-      curveRel === null ? null : `${p.mill.key}/${curveRel}`,
-      p.summary ? 'summary' : p.layout,
-      law.kind,
-      fx(law.modulusMpa / 1000, 3),
-      fx(t.rehMpa, 3),
-      fx(t.relMpa, 3),
-      fx(t.relMinMpa, 3),
-      fx(t.rp02Mpa, 3),
-      fx(t.rt05Mpa, 3),
-      fx(t.rmMpa, 3),
-      fx(t.agPct, 4),
-      fx(t.agtPct, 4),
-      fx(t.aPct, 4),
-      fx(t.ypePct, 4),
-      fx(yieldTruth, 3),
-      g.yieldDefinition,
-      law.kind === 'plateau-swift' ? fx(law.n, 5) : law.kind === 'ramberg-osgood' ? fx(1 / law.m, 5) : null,
-      law.kind === 'plateau-swift' ? fx(law.kMpa, 3) : null,
-      law.kind === 'plateau-swift' ? fx(law.eps0, 6) : null,
-      law.kind === 'plateau-swift' ? fx(law.epsPlateauEnd, 6) : null,
-      law.kind === 'plateau-swift' ? null : fx(law.sigma0Mpa, 3),
-      law.kind === 'ramberg-osgood' ? fx(law.m, 5) : null,
-      law.kind === 'voce' ? fx(law.qMpa, 3) : null,
-      law.kind === 'voce' ? fx(law.b, 5) : null,
-      fx(geo.areaMm2, 4),
-      fx(geo.gaugeLengthMm, 3),
-      fx(sim.loopAtStrain, 6),
-      fx(sim.extensometerRemovedAtStrain, 6),
-      fx(yieldShift, 3),
-    ]);
-    counts.tests++;
-    counts.bySupplier[p.mill.name] = (counts.bySupplier[p.mill.name] ?? 0) + 1;
-    counts.byGrade[g.label] = (counts.byGrade[g.label] ?? 0) + 1;
+    const given = givenValues(p, sim, new Rng(mixSeed(seed ^ CERTIFICATES.stream, index + 1)));
+    const temperature = rng.int(18, 24);
+    const row = manifestRow(p, { lab, testId, geo }, curveRel, given, temperature);
+    m.writer.write(METRIC_HEADER.map((k) => row[k]));
+    const truthOfTest = truthRow(p, { lab, testId, geo, sim }, m.rel, curveRel, yieldShift ?? 0);
+    truth.write(TRUTH_HEADER.map((k) => truthOfTest[k]));
+    countTest(counts, p, sim, given.certificate, yieldShift !== null);
   });
   for (const w of writers.values()) w.close();
   truth.close();

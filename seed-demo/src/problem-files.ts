@@ -85,7 +85,9 @@ export const METRIC_HEADER = [
   'elongation[%]',
 ] as const;
 
-type Row = Record<(typeof METRIC_HEADER)[number], Cell>;
+/** A manifest row keyed by its columns (METRIC_HEADER gives names and order). */
+export type ManifestRow = Record<(typeof METRIC_HEADER)[number], Cell>;
+type Row = ManifestRow;
 
 const COMMENTS = ['incoming inspection record (invented demo data)', 'specimen flat 10.00 x 25.00 mm, L0 80 mm'];
 /** data line i (0-based) of a curve written with COMMENTS sits on this 1-based line */

@@ -9,12 +9,15 @@
  * ~ N(0, covWithin²); tensile follows through an Rm/yield ratio with its own scatter.
  */
 
+import type { Family as CurvesFamily, YieldDefinition } from '@fractile/curves';
+
 export const FABRICATOR = 'Brackenmoor Fabrication Ltd';
 export const WINDOW_START = '2023-01-01';
 export const WINDOW_END = '2025-12-31';
 
-export type Family = 'steel' | 'aluminium';
-export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
+/** The families of the demo's grades (the toolkit also knows 'other'). */
+export type Family = Exclude<CurvesFamily, 'other'>;
+export type { YieldDefinition };
 
 export interface SpecLimits {
   yield_min_mpa: number | null;

@@ -15,7 +15,8 @@
  * CoV is a fraction in JSON and CSV (the comment block says so) and percent in tables.
  */
 import { writeFileSync } from 'node:fs';
-import { CAUTION, csvCommentBlock, csvSidecar, csvTable, jsonEnvelope, significant, type Row } from '@fractile/pipeline/export-format';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
+import { csvCommentBlock, csvSidecar, csvTable, jsonEnvelope, significant, type Row } from '@fractile/pipeline/export-format';
 import { groupLabel } from '@fractile/report/group-label';
 import type { GlobalOptions } from './context.ts';
 import { CODE_VERSION } from './version.ts';
@@ -89,11 +90,11 @@ export function print(g: GlobalOptions, out: Output): void {
     }
     process.stdout.write(body);
     if (g.sidecar) writeFileSync(g.sidecar, csvSidecar(out.kind, out.title, provenance, out.notes));
-    else if (out.result !== false) process.stderr.write(`fractile: ${CAUTION} (plain CSV: --sidecar FILE writes the provenance)\n`);
+    else if (out.result !== false) process.stderr.write(`fractile: ${DESIGN_VALUE_CAUTION} (plain CSV: --sidecar FILE writes the provenance)\n`);
     return;
   }
   process.stdout.write(out.tableText ?? toTable(out.rows, out.tableColumns ?? out.columns, out.headers, out.percentColumns));
-  if (out.result !== false) process.stdout.write(`\n${CAUTION}\n`);
+  if (out.result !== false) process.stdout.write(`\n${DESIGN_VALUE_CAUTION}\n`);
 }
 
 /**

@@ -24,6 +24,3 @@ export { shapeClass } from './shape-class.ts';
 export { resampleOnGrid } from './grid.ts';
 export { reduceCurve, checkSettings } from './reduce.ts';
 export { propertiesFromSummary, type SummaryInput } from './summary.ts';
-export {
-  seededRandom, seededNormal, rambergOsgoodCurve, hollomonCurve, plateauCurve, bilinearCurve, type SyntheticCommon, type SyntheticCurve,
-} from './synthetic.ts';

@@ -4,7 +4,9 @@
  * elsewhere are mm/mm.
  */
 export type Family = 'steel' | 'aluminium' | 'other';
-export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
+/** The yield definitions a grade may name (ISO 6892-1: Rp, Rt, ReH, ReL); the single list of them. */
+export const YIELD_DEFINITIONS = ['rp0.2', 'rt0.5', 'reh', 'rel'] as const;
+export type YieldDefinition = (typeof YIELD_DEFINITIONS)[number];
 export type ShapeClass = 'plateau' | 'continuous' | 'bilinear';
 
 /** One test's channels in canonical units. A curve has force and extension (or crosshead), or stress and strain. */

@@ -12,8 +12,8 @@ import { createReadStream, existsSync, realpathSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import { type CsvError, parse } from 'csv-parse';
-import type { Quantity, SpecimenShape, UnitDef } from '@fractile/curves';
-import { crossSectionArea, SPECIMEN_SHAPES, unitFor } from '@fractile/curves';
+import type { Quantity, SpecimenShape, UnitDef, YieldDefinition } from '@fractile/curves';
+import { crossSectionArea, SPECIMEN_SHAPES, unitFor, YIELD_DEFINITIONS } from '@fractile/curves';
 import { emptyTail, parseCell, parseIsoDate, splitHeader } from './parse-cell.ts';
 import { checkRange } from './plausible-range.ts';
 import type { Rejection } from './rejection.ts';
@@ -22,8 +22,6 @@ import { NotUtf8Error, SourceScanner } from './source-scanner.ts';
 import { showCell, textProblem } from './text-cell.ts';
 import { unknownUnitMessage } from './unit-message.ts';
 
-export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
-export const YIELD_DEFINITIONS: readonly YieldDefinition[] = ['rp0.2', 'rt0.5', 'reh', 'rel'];
 
 export interface SummaryValues {
   yieldMpa: number | null;

@@ -34,12 +34,11 @@
  * docs/input-formats.md documents every key.
  */
 import { readFileSync } from 'node:fs';
+import { YIELD_DEFINITIONS, type Family, type YieldDefinition } from '@fractile/curves';
 import { JsonSyntaxError, parseLocatedJson, type JsonPosition, type LocatedJson } from './json-located.ts';
 import { NUMERIC_PROPERTIES, type PropertyKey } from './properties.ts';
 
-export type Family = 'steel' | 'aluminium' | 'other';
-export type YieldDefinition = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
-export const YIELD_DEFINITIONS: readonly YieldDefinition[] = ['rp0.2', 'rt0.5', 'reh', 'rel'];
+export { YIELD_DEFINITIONS, type Family, type YieldDefinition } from '@fractile/curves';
 
 export interface SpecLimits {
   yield_min_mpa?: number | null;

@@ -17,14 +17,14 @@ import { ALGORITHM_VERSION } from './runs.ts';
 
 export const NUMERIC_PROPERTIES = [
   'yield_mpa', 'rp02_mpa', 'rt05_mpa', 'reh_mpa', 'rel_mpa', 'rm_mpa', 'yt_ratio', 'ag_pct', 'agt_pct', 'a_pct', 'n_value', 'modulus_gpa',
-] as const;
+] as const satisfies readonly (keyof TestProperties)[];
 export type PropertyKey = (typeof NUMERIC_PROPERTIES)[number];
 
 /** Contract key order of `fractile properties`. */
 export const PROPERTY_ROW_KEYS = [
   'lab', 'test_id', 'grade', 'supplier', 'heat', 'tested_on', 'modulus_gpa', 'rp02_mpa', 'rt05_mpa', 'reh_mpa', 'rel_mpa', 'ype_pct', 'rm_mpa',
   'ag_pct', 'agt_pct', 'a_pct', 'yt_ratio', 'n_value', 'k_mpa', 'yield_mpa', 'yield_definition', 'shape_class', 'flags',
-] as const;
+] as const satisfies readonly (keyof PropertyRow)[];
 
 /** A test's identity and metadata with its properties (the contract keys of TestProperties). */
 export interface PropertyRow extends TestProperties {
@@ -172,7 +172,7 @@ async function loadReducedRows(db: Kysely<Database>, filter: PropertyFilter, loa
   }));
 }
 
-/** The contract view of a row (keys of DESIGN.md plus the failure reason, if any). */
+/** The contract view of a row (the contract keys, PROPERTY_ROW_KEYS, plus the failure reason, if any; docs/architecture.md). */
 export function contractView(r: PropertyRow): Record<string, unknown> {
   const out: Record<string, unknown> = {};
   for (const k of PROPERTY_ROW_KEYS) out[k] = r[k];

@@ -6,6 +6,12 @@
  * contracts of `fractile curves`, `fractile stats` and `fractile drift` (same keys, snake_case).
  * The rest (samples, raw values, chart series) is what the pipeline adds for drawing.
  */
+import type {
+  CharacteristicValue as StatsCharacteristicValue,
+  Compliance as StatsCompliance,
+  FitSummary,
+  PropertySummary,
+} from '@fractile/stats';
 
 /** Any JSON value; used where a stage output is open-ended (idealizations, provenance). */
 export type JsonValue = string | number | boolean | null | readonly JsonValue[] | { readonly [key: string]: JsonValue };
@@ -121,58 +127,43 @@ export interface SampleCurve {
 // ---------------------------------------------------------------------------------------------
 // stats stage (contract of `fractile stats --format json`)
 
+/*
+ * The stats shapes the report reads are taken from the stats package (stats/src), so a renamed
+ * key there fails here: the report picks the keys it draws and widens a few of them (method and
+ * model names as plain strings, nullable notes and levels, the later keys optional) because it
+ * also draws the stored JSON of earlier runs and hand-made inputs.
+ */
+
 /**
  * A fitted distribution. Parameters by model: normal `{ mu, sigma }` (`{ mean, sd }` also read);
  * lognormal `{ mu, sigma }` of ln x; weibull `{ shape, scale }`. `ad` is the Anderson–Darling statistic, `p` its p-value.
  */
-export interface DistributionFit {
+export interface DistributionFit extends Pick<FitSummary, 'p'> {
   model: string;
-  params: Readonly<Record<string, number>>;
-  ad: number | null;
-  p: number | null;
+  params: Readonly<FitSummary['params']>;
+  ad: FitSummary['ad'] | null;
 }
 
-export interface CharacteristicValue {
+export interface CharacteristicValue extends Pick<StatsCharacteristicValue, 'confidence' | 'value'> {
   method: string;
-  coverage: number | null;
-  confidence: number | null;
-  value: number | null;
-  note: string | null;
+  coverage: StatsCharacteristicValue['coverage'] | null;
+  note: StatsCharacteristicValue['note'] | null;
 }
 
-export interface Compliance {
-  lower: number | null;
-  upper: number | null;
-  /** Null where the limit on that side is not set. */
-  n_below: number | null;
-  n_above: number | null;
-  fraction_outside: number;
-  tail_below: number | null;
-  tail_above: number | null;
-  cpk: number | null;
-}
+/** Null counts where the limit on that side is not set. */
+export type Compliance = Pick<StatsCompliance, 'lower' | 'upper' | 'n_below' | 'n_above' | 'fraction_outside' | 'tail_below' | 'tail_above' | 'cpk'>;
 
-export interface PropertyStats {
+export interface PropertyStats
+  extends Pick<PropertySummary, 'n' | 'mean' | 'sd' | 'cov' | 'min' | 'max' | 'median' | 'percentiles'>,
+    Partial<Pick<PropertySummary, 'best_fit_rule' | 'headline_rule'>> {
   group: GroupKey;
   /** Property key as in `fractile properties` (`rp02_mpa`, `rm_mpa`, `ag_pct`, `n_value`, …). */
   property: string;
-  n: number;
-  mean: number | null;
-  sd: number | null;
-  cov: number | null;
-  min: number | null;
-  max: number | null;
-  median: number | null;
-  percentiles: { p05: number | null; p50: number | null; p95: number | null };
   fits: readonly DistributionFit[];
   best_fit: string | null;
-  /** Why the best fit was chosen, as the stats stage words it. */
-  best_fit_rule?: string;
   characteristic: readonly CharacteristicValue[];
   /** The design value: the characteristic value the stats stage's headline rule chose. */
   headline?: CharacteristicValue | null;
-  /** The headline rule, fixed before the data, as the stats stage states it. */
-  headline_rule?: string;
   /** How the rule resolved here (`lowest-model`, `catalog-model`, `distribution-free-fallback`, `no-model-fits`). */
   headline_basis?: string | null;
   /** Values left out of this property's statistics, by reason (`excluded` or a flag name). */

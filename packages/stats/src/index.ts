@@ -22,7 +22,8 @@ export type { WeibullPivots } from './weibull-pivot.ts';
 export { weibullToleranceFactor, pivotFactor, WEIBULL_TABLE_SAMPLES, ON_DEMAND_SAMPLES } from './weibull-tolerance-factor.ts';
 export type { WeibullFactor } from './weibull-tolerance-factor.ts';
 export { WEIBULL_FACTOR_TABLE } from './weibull-factor-table.ts';
-export { summarizeProperty, DEFAULT_LEVELS } from './summarize-property.ts';
+export { summarizeProperty } from './summarize-property.ts';
+export { DEFAULT_LEVELS, HEADLINE_LEVEL } from './default-levels.ts';
 export type { SummaryOptions, FitSummary, PropertySummary } from './summarize-property.ts';
 export {
   MIN_N_FIT,

@@ -19,6 +19,7 @@ import { normalCharacteristic } from './characteristic-normal.ts';
 import { orderStatisticCharacteristic } from './characteristic-order-statistic.ts';
 import { MIN_N_TOLERANCE, fmt, type CharacteristicMethod, type CharacteristicValue, type HeadlineModel, type SummaryLevel } from './characteristic-types.ts';
 import { complianceOf, type Compliance } from './compliance.ts';
+import { DEFAULT_LEVELS } from './default-levels.ts';
 import { describeSample } from './describe-sample.ts';
 import { DEFAULT_PRIOR_V_CHECK_LEVEL, en1990VKnown } from './en1990-v-known.ts';
 import { en1990VUnknown } from './en1990-v-unknown.ts';
@@ -30,7 +31,7 @@ import { weibullCharacteristic } from './characteristic-weibull.ts';
 
 export interface SummaryOptions {
   /** Tolerance levels; the first is the headline level. Default DEFAULT_LEVELS. */
-  levels?: SummaryLevel[];
+  levels?: readonly SummaryLevel[];
   /** Prior coefficient of variation for `en1990-v-known`, from the grade catalog; absent or null: not offered. */
   priorV?: number | null;
   /** Level of the χ² check of the prior V against the sample (default 0.95). */
@@ -79,11 +80,6 @@ export interface PropertySummary {
   warnings: string[];
 }
 
-export const DEFAULT_LEVELS: readonly SummaryLevel[] = [
-  { coverage: 0.95, confidence: 0.75 },
-  { coverage: 0.99, confidence: 0.95 },
-  { coverage: 0.9, confidence: 0.95 },
-];
 
 function toleranceValues(s: ReturnType<typeof describeSample>['sample'], level: SummaryLevel): CharacteristicValue[] {
   const fit = (m: ModelName) => s.fits.find((f) => f.model === m);

@@ -4,12 +4,13 @@
  * (MPa, percent). The cross-check compares them with what the curve gives.
  */
 import type { Kysely } from 'kysely';
-import type { Database, YieldDefinitionCode } from './schema.ts';
+import type { YieldDefinition } from '@fractile/curves';
+import type { Database } from './schema.ts';
 
 export interface CertificateValues {
   test_row_id: number;
   yield_mpa: number | null;
-  yield_definition: YieldDefinitionCode | null;
+  yield_definition: YieldDefinition | null;
   tensile_mpa: number | null;
   uniform_elongation_pct: number | null;
   elongation_pct: number | null;

@@ -9,7 +9,8 @@
  */
 import type { Kysely } from 'kysely';
 import { channelFromBytes } from './channel-bytes.ts';
-import type { Database, SpecimenShapeCode, YieldDefinitionCode } from './schema.ts';
+import type { YieldDefinition } from '@fractile/curves';
+import type { Database, SpecimenShapeCode } from './schema.ts';
 
 export interface StoredCurve {
   nPoints: number;
@@ -25,7 +26,7 @@ export interface StoredCurve {
 
 export interface StoredSummary {
   yieldMpa: number | null;
-  yieldDefinition: YieldDefinitionCode | null;
+  yieldDefinition: YieldDefinition | null;
   tensileMpa: number | null;
   uniformElongationPct: number | null;
   elongationPct: number | null;

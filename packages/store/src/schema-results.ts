@@ -3,6 +3,7 @@
  * keyed by (test or group, settings hash, algorithm version) so old and new results stand side by
  * side. Created by migrations/0100-results.ts (drift_alerts by 0120-drift-alerts.ts).
  */
+import type { TestProperties } from '@fractile/curves';
 import type { ColumnType, Generated, JSONColumnType } from 'kysely';
 
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -31,7 +32,8 @@ export interface StageRunsTable {
   queue_job: Generated<string | null>;
 }
 
-export interface TestResultsTable {
+/** One test's result row: the per-test properties of the contract (TestProperties) plus keys and extras. */
+export interface TestResultsTable extends Omit<TestProperties, 'flags'> {
   test_pk: number;
   settings_hash: string;
   algorithm_version: string;
@@ -40,22 +42,6 @@ export interface TestResultsTable {
   given: Generated<boolean>;
   failure_code: string | null;
   failure_message: string | null;
-  modulus_gpa: number | null;
-  rp02_mpa: number | null;
-  rt05_mpa: number | null;
-  reh_mpa: number | null;
-  rel_mpa: number | null;
-  ype_pct: number | null;
-  rm_mpa: number | null;
-  ag_pct: number | null;
-  agt_pct: number | null;
-  a_pct: number | null;
-  yt_ratio: number | null;
-  n_value: number | null;
-  k_mpa: number | null;
-  yield_mpa: number | null;
-  yield_definition: 'rp0.2' | 'rt0.5' | 'reh' | 'rel' | null;
-  shape_class: 'plateau' | 'continuous' | 'bilinear' | null;
   flags: Generated<string[]>;
   uniform_plastic_strain: number | null;
   grid_stress_mpa: (number | null)[] | null;

@@ -7,6 +7,7 @@
  * Dates (`date` columns) are read as 'YYYY-MM-DD' strings and int8 ids as numbers on both
  * engines (see open-store.ts).
  */
+import type { YieldDefinition } from '@fractile/curves';
 import type { ColumnType, Generated, Insertable, Selectable } from 'kysely';
 import type { ResultTables } from './schema-results.ts';
 
@@ -17,7 +18,6 @@ type Json = ColumnType<unknown, string, string>;
 type ChannelBytes = ColumnType<Uint8Array | null, Uint8Array | null, Uint8Array | null>;
 
 export type SpecimenShapeCode = 'round' | 'flat' | 'area';
-export type YieldDefinitionCode = 'rp0.2' | 'rt0.5' | 'reh' | 'rel';
 export type RunStatus = 'running' | 'completed' | 'failed' | 'abandoned';
 
 /** One row per distinct file content (manifests, curve files, column maps), keyed by SHA-256. */
@@ -114,7 +114,7 @@ export interface CurvesTable {
 export interface SummaryRecordsTable {
   test_row_id: number;
   yield_mpa: number | null;
-  yield_definition: YieldDefinitionCode | null;
+  yield_definition: YieldDefinition | null;
   tensile_mpa: number | null;
   uniform_elongation_pct: number | null;
   elongation_pct: number | null;

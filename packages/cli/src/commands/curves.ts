@@ -6,6 +6,7 @@
 import type { Command } from 'commander';
 import type { DesignOptions } from '@fractile/pipeline';
 import { groupLabel } from '@fractile/report/group-label';
+import { HEADLINE_LEVEL } from '@fractile/stats/default-levels';
 import { CliError, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, addPopulationOptions, catalogPath, checkFilterValues, groupBy, probability, readFilter, readPopulation, resolveCatalog, withStore } from '../common-options.ts';
 import { grouped, print } from '../output.ts';
@@ -20,21 +21,29 @@ export const command: CommandModule = {
     addPopulationOptions(addFilterOptions(
       program
         .command('curves')
-        .description('median and characteristic true stress – plastic strain curves per group, with idealizations (elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
+        .description(
+          'median and characteristic true stress – plastic strain curves per group, with idealizations ' +
+          '(elastic–perfectly plastic, bilinear, multilinear, Ramberg–Osgood)')
         .option('--by <fields>', 'grouping (comma-separated)', 'grade')
-        .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', '0.95')
-        .option('--confidence <g>', 'confidence of the lower tolerance bound', '0.75')
+        .option('--coverage <p>', 'coverage of the lower tolerance bound at each strain', String(HEADLINE_LEVEL.coverage))
+        .option('--confidence <g>', 'confidence of the lower tolerance bound', String(HEADLINE_LEVEL.confidence))
         .option('--model <m>', 'tolerance model at each strain: normal or lognormal', 'normal')
         .option('--extrapolate <law>', 'extend past the valid range by a law fitted to the characteristic curve: swift, voce or hollomon')
         .option('--extrapolate-to <strain>', 'plastic strain the extrapolation reaches (default: end of the grid)')
         .option('--multilinear-points <n>', 'points of the multilinear idealization', '6')
         .option('--catalog <file>', 'grade catalog for the headline settings of the characteristic yield (default: the catalog of the last reduce)')
-        .option('--band <kind>', 'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band (the whole curve at once, critical value by simulation)', 'pointwise')
+        .option('--band <kind>',
+          'characteristic curve as a pointwise lower tolerance bound (each strain separately) or a simultaneous band ' +
+          '(the whole curve at once, critical value by simulation)', 'pointwise')
         .option('--band-simulations <n>', 'Monte Carlo replicates for the simultaneous band’s critical value', '2000')
         .option('--out <dir>', 'also write per-group CSV and JSON exports into this folder, with the FE tables')
         .option('--fe-unit <unit>', 'stress unit of the FE tables written with --out: MPa or ksi', 'MPa'),
     ))
-      .addHelpText('after', '\nCSV on stdout is a long table (the group fields, plastic_strain, median_mpa, characteristic_mpa, extrapolated) after # comment lines with the caution, the provenance and the band kind (--no-comments: none).\nWith --out, per group <group>.true-stress-plastic-strain.csv is the FE table: true stress against true plastic strain from 0, two columns, no comment lines, its provenance in <file>.provenance.json.')
+      .addHelpText('after',
+        '\nCSV on stdout is a long table (the group fields, plastic_strain, median_mpa, characteristic_mpa, ' +
+        'extrapolated) after # comment lines with the caution, the provenance and the band kind (--no-comments: ' +
+        'none).\nWith --out, per group <group>.true-stress-plastic-strain.csv is the FE table: true stress against ' +
+        'true plastic strain from 0, two columns, no comment lines, its provenance in <file>.provenance.json.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
         const { bandStatement, runCurves, writeCurveFiles, STRESS_UNITS } = await import('@fractile/pipeline');
         const g = globals(cmd);
@@ -53,8 +62,8 @@ export const command: CommandModule = {
         if (band !== 'pointwise' && band !== 'simultaneous') throw new CliError('--band must be pointwise or simultaneous');
         const simulations = Number(o.bandSimulations);
         if (!Number.isInteger(simulations) || simulations < 100) throw new CliError('--band-simulations must be an integer ≥ 100');
-        const coverage = probability(o.coverage, '--coverage', 0.95);
-        const confidence = probability(o.confidence, '--confidence', 0.75);
+        const coverage = probability(o.coverage, '--coverage', HEADLINE_LEVEL.coverage);
+        const confidence = probability(o.confidence, '--confidence', HEADLINE_LEVEL.confidence);
         const design: Partial<DesignOptions> = {
           coverage,
           confidence,

@@ -1,6 +1,7 @@
 /** `fractile stats`: population statistics and characteristic values per group (contract JSON). */
 import type { Command } from 'commander';
 import type { Level } from '@fractile/pipeline';
+import { DEFAULT_LEVELS, HEADLINE_LEVEL } from '@fractile/stats/default-levels';
 import { CliError, globals, log, type CommandModule } from '../context.ts';
 import { addFilterOptions, addPopulationOptions, catalogPath, checkFilterValues, groupBy, probability, readFilter, readPopulation, readProperties, resolveCatalog, withStore } from '../common-options.ts';
 import { grouped, print } from '../output.ts';
@@ -23,24 +24,39 @@ export const command: CommandModule = {
     addPopulationOptions(addFilterOptions(
       program
         .command('stats')
-        .description('per group and property: n, mean, SD, CoV, percentiles, normal/lognormal/Weibull fits with Anderson–Darling, characteristic values with the headline design value and its rule, compliance on individual tests, values left out by reason')
-        .option('--by <fields>', 'grouping: grade, supplier, heat, lab, year, quarter, orientation, temperature_c, shape, yield_definition (comma-separated)', 'grade')
+        .description(
+          'per group and property: n, mean, SD, CoV, percentiles, normal/lognormal/Weibull fits with Anderson–Darling, ' +
+          'characteristic values with the headline design value and its rule, compliance on individual tests, values ' +
+          'left out by reason')
+        .option('--by <fields>',
+          'grouping: grade, supplier, heat, lab, year, quarter, orientation, temperature_c, shape, yield_definition ' +
+          '(comma-separated)', 'grade')
         .option('--property <keys...>', 'properties (default: all numeric keys)')
-        .option('--coverage <p>', 'coverage of the headline tolerance limit', '0.95')
-        .option('--confidence <g>', 'confidence of the headline tolerance limit', '0.75')
-        .option('--prior-v <cov>', 'prior coefficient of variation for the EN 1990 "V known" fractile of every selected property (overrides the catalog\'s prior_v; without either the method is not offered)')
+        .option('--coverage <p>', 'coverage of the headline tolerance limit', String(HEADLINE_LEVEL.coverage))
+        .option('--confidence <g>', 'confidence of the headline tolerance limit', String(HEADLINE_LEVEL.confidence))
+        .option('--prior-v <cov>',
+          'prior coefficient of variation for the EN 1990 "V known" fractile of every selected property (overrides the ' +
+          'catalog\'s prior_v; without either the method is not offered)')
         .option('--catalog <file>', 'grade catalog for the spec limits (default: the catalog of the last reduce)')
         .option('--correlations', 'print the Pearson and Spearman matrices per group instead'),
     ))
-      .addHelpText('after', '\nThe characteristic column is the headline (design) value: by default the lowest of the exact normal, lognormal and Weibull tolerance limits at the headline coverage and confidence (the grade catalog may name the method per property); the method and the rule are in the JSON (headline, headline_rule, headline_basis); the other methods are alternatives.')
+      .addHelpText('after',
+        '\nThe characteristic column is the headline (design) value: by default the lowest of the exact normal, ' +
+        'lognormal and Weibull tolerance limits at the headline coverage and confidence (the grade catalog may name ' +
+        'the method per property); the method and the rule are in the JSON (headline, headline_rule, headline_basis); ' +
+        'the other methods are alternatives.')
       .action(async (o: Record<string, unknown>, cmd: Command) => {
         const { runAggregate, NUMERIC_PROPERTIES } = await import('@fractile/pipeline');
       const g = globals(cmd);
       const by = await groupBy(o.by);
       const properties = readProperties(o, NUMERIC_PROPERTIES);
       const filter = readFilter(o);
-      const headline: Level = { coverage: probability(o.coverage, '--coverage', 0.95), confidence: probability(o.confidence, '--confidence', 0.75) };
-      const others: Level[] = [{ coverage: 0.99, confidence: 0.95 }, { coverage: 0.9, confidence: 0.95 }, { coverage: 0.95, confidence: 0.75 }];
+      const headline: Level = {
+        coverage: probability(o.coverage, '--coverage', HEADLINE_LEVEL.coverage),
+        confidence: probability(o.confidence, '--confidence', HEADLINE_LEVEL.confidence),
+      };
+      // the other default levels, then the default headline when another headline is asked for
+      const others: Level[] = [...DEFAULT_LEVELS.slice(1), HEADLINE_LEVEL];
       const levels = [headline, ...others.filter((l) => l.coverage !== headline.coverage || l.confidence !== headline.confidence)];
       const priorV = o.priorV === undefined ? undefined : Number(o.priorV);
       if (priorV !== undefined && !(priorV > 0 && priorV < 1)) throw new CliError('--prior-v must be a number between 0 and 1 (exclusive)');

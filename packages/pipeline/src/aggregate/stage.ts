@@ -7,7 +7,7 @@
  * Results are stored per run; the same settings on the same inputs reuse the stored run.
  */
 import type { Store } from '@fractile/store';
-import { correlationMatrices, summarizeProperty, type PropertySummary, type SummaryOptions } from '@fractile/stats';
+import { correlationMatrices, DEFAULT_LEVELS, summarizeProperty, type PropertySummary, type SummaryLevel, type SummaryOptions } from '@fractile/stats';
 import { gradeSettings, type Catalog } from '../catalog.ts';
 import { populationHash } from '../population-hash.ts';
 import { leftOutCounts, type LeftOut, type Population, type PopulationOptions } from '../population.ts';
@@ -16,16 +16,14 @@ import { exclusiveStage, runStage, STAGE_VERSIONS } from '../runs.ts';
 import { groupRows, type GroupField } from './grouping.ts';
 import { limitsFor } from './limits.ts';
 
-export interface Level {
-  coverage: number;
-  confidence: number;
-}
+/** A coverage/confidence pair of the characteristic values (the stats package's shape). */
+export type Level = SummaryLevel;
 
 export interface AggregateOptions {
   by: GroupField[];
   properties?: PropertyKey[];
-  /** first level is the headline; default 0.95/0.75, 0.99/0.95, 0.90/0.95 */
-  levels?: Level[];
+  /** first level is the headline; default DEFAULT_LEVELS (stats/src/default-levels.ts) */
+  levels?: readonly Level[];
   /** prior coefficient of variation for the EN 1990 "V known" fractile of every property, overriding the catalog */
   priorV?: number;
   filter?: PropertyFilter;
@@ -55,11 +53,6 @@ export interface AggregateResult {
   exclusions: Population['exclusions'];
 }
 
-export const DEFAULT_LEVELS: Level[] = [
-  { coverage: 0.95, confidence: 0.75 },
-  { coverage: 0.99, confidence: 0.95 },
-  { coverage: 0.9, confidence: 0.95 },
-];
 
 /** The single grade of a group (from its key, or shared by all its rows), else null. */
 function groupGrade(key: Record<string, string>, rows: PropertyRow[], idx: number[]): string | null {

@@ -12,7 +12,7 @@ export { fitBilinearHardening, type BilinearFit } from './idealize-bilinear.ts';
 export { multilinearBreakpoints, type MultilinearPoints } from './idealize-multilinear.ts';
 export { fitRambergOsgoodPlastic, rambergOsgoodPlasticStrain, rambergOsgoodStressAtPlastic, interpolateAt, RO_OFFSET, type RambergOsgoodFit } from './idealize-ramberg-osgood.ts';
 export { fitLaw, extrapolateJoined, extrapolationPoints, fitWindowStart, type FittedLaw } from './extrapolate-law.ts';
-export { DESIGN_CAUTION, designProvenance, designSettings, testIdsSha256 } from './provenance.ts';
+export { designProvenance, designSettings, testIdsSha256 } from './provenance.ts';
 export {
   type CommonFields,
   IDEALIZED_CSV_COLUMNS,

@@ -8,9 +8,6 @@ import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import { hashOf, sha256Hex } from '../hash.ts';
 import type { DesignOptions, DesignProvenance, DesignSettings, ProvenanceInput } from './types.ts';
 
-/** The caution of every output: the one text (report/src/caution.ts). */
-export const DESIGN_CAUTION: string = DESIGN_VALUE_CAUTION;
-
 /** SHA-256 of the ids sorted by code unit and joined by "\n". */
 export function testIdsSha256(ids: readonly string[]): string {
   return sha256Hex([...ids].sort().join('\n'));
@@ -42,6 +39,6 @@ export function designProvenance(group: Record<string, string>, testIds: readonl
     settings_hash: hashOf(settings),
     code_version: input.code_version,
     generated_at: input.generated_at,
-    caution: DESIGN_CAUTION,
+    caution: DESIGN_VALUE_CAUTION,
   };
 }

@@ -4,6 +4,8 @@
  * unless a name says otherwise), modulus in MPa unless the name says GPa.
  */
 
+import { HEADLINE_LEVEL } from '@fractile/stats/default-levels';
+
 /** One test's true stress – true plastic strain curve, already resampled on the group's grid. */
 export interface TestGridCurve {
   test_id: string;
@@ -45,8 +47,8 @@ export interface DesignOptions {
 }
 
 export const DEFAULT_DESIGN_OPTIONS: Readonly<DesignOptions> = Object.freeze({
-  coverage: 0.95,
-  confidence: 0.75,
+  coverage: HEADLINE_LEVEL.coverage,
+  confidence: HEADLINE_LEVEL.confidence,
   model: 'normal',
   extrapolate: null,
   multilinearPoints: 6,

@@ -14,8 +14,6 @@
 import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import { csvComment, csvLine } from '../csv-cell.ts';
 
-export const CAUTION = DESIGN_VALUE_CAUTION;
-
 /** Significant digits of numbers in CSV output. */
 export const CSV_DIGITS = 6;
 
@@ -30,7 +28,7 @@ export interface Envelope<T = unknown> {
 
 /** The JSON envelope as text (two-space indented, one line break at the end). */
 export function jsonEnvelope(kind: string, provenance: Record<string, unknown>, data: unknown): string {
-  const doc: Envelope = { kind, caution: CAUTION, provenance, data };
+  const doc: Envelope = { kind, caution: DESIGN_VALUE_CAUTION, provenance, data };
   return JSON.stringify(doc, null, 2) + '\n';
 }
 
@@ -57,7 +55,7 @@ export function csvTable(rows: readonly Row[], columns?: readonly string[], digi
 
 /** The comment block above a CSV table. */
 export function csvCommentBlock(title: string, provenance: Record<string, unknown>, notes: Readonly<Record<string, string>> = {}): string {
-  const lines = [`# ${title}`, `# caution: ${CAUTION}`, ...Object.entries(provenance).map(([k, v]) => csvComment(k, v)), ...Object.entries(notes).map(([k, v]) => `# column ${k}: ${v}`)];
+  const lines = [`# ${title}`, `# caution: ${DESIGN_VALUE_CAUTION}`, ...Object.entries(provenance).map(([k, v]) => csvComment(k, v)), ...Object.entries(notes).map(([k, v]) => `# column ${k}: ${v}`)];
   return lines.join('\n') + '\n';
 }
 

@@ -4,7 +4,7 @@
  * and per group the distribution model (distribution-model.ts) with its provenance. Format name
  * and version are part of the document, so a reader can check what it reads.
  */
-import { DESIGN_CAUTION } from '../design/provenance.ts';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import type { GroupDistribution } from './distribution-model.ts';
 import { sampleProvenance, type SampleProvenance } from './sample-provenance.ts';
 import type { DistributionStageResult } from './stage.ts';
@@ -28,7 +28,7 @@ export function distributionExport(result: Pick<DistributionStageResult, 'run' |
   return {
     format: DISTRIBUTION_EXPORT_FORMAT,
     format_version: DISTRIBUTION_EXPORT_VERSION,
-    caution: DESIGN_CAUTION,
+    caution: DESIGN_VALUE_CAUTION,
     code_version: codeVersion,
     generated_at: generatedAt,
     stats_run: result.stats_run,

@@ -6,7 +6,7 @@
  * comes as rows and header lines; the caller writes them through its one CSV cell writer.
  * Units: plastic strain mm/mm (true), stress MPa (true).
  */
-import { DESIGN_CAUTION } from '../design/provenance.ts';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import type { GroupCurveModel } from './curve-models.ts';
 import type { RandomCurveSet } from './random-curves.ts';
 import { sampleProvenance, type SampleProvenance } from './sample-provenance.ts';
@@ -55,7 +55,7 @@ export function randomCurvesExport(stage: Pick<CurveModelStageResult, 'run' | 's
   return {
     format: RANDOM_CURVES_FORMAT,
     format_version: RANDOM_CURVES_VERSION,
-    caution: DESIGN_CAUTION,
+    caution: DESIGN_VALUE_CAUTION,
     code_version: codeVersion,
     generated_at: generatedAt,
     sample_run: stage.run,
@@ -72,7 +72,7 @@ export function randomCurvesTable(doc: RandomCurvesExport): { header: string[]; 
   const fields = [...new Set(doc.groups.flatMap((g) => Object.keys(g.group)))];
   const header = [
     `${RANDOM_CURVES_FORMAT}, csv format ${RANDOM_CURVES_VERSION}`,
-    `caution: ${DESIGN_CAUTION}`,
+    `caution: ${DESIGN_VALUE_CAUTION}`,
     `units: plastic_strain true plastic strain (mm/mm), true_stress_mpa true stress (MPa); each sample ends at its own uniform plastic strain`,
     `code_version: ${doc.code_version}, generated_at: ${doc.generated_at}, sample run ${doc.sample_run}`,
     ...doc.groups.map((g) => `provenance: ${JSON.stringify(g.provenance)}`),

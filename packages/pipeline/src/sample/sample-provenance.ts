@@ -5,7 +5,7 @@
  * the date (passed in; nothing here reads the clock) and the safety caution.
  */
 import { hashOf } from '../hash.ts';
-import { DESIGN_CAUTION } from '../design/provenance.ts';
+import { DESIGN_VALUE_CAUTION } from '@fractile/report/caution';
 import type { DesignProvenance } from '../design/types.ts';
 
 export type SampleProvenance = Omit<DesignProvenance, 'settings'> & { settings: Record<string, unknown> };
@@ -24,6 +24,6 @@ export function sampleProvenance(
     settings_hash: hashOf(settings),
     code_version: codeVersion,
     generated_at: generatedAt,
-    caution: DESIGN_CAUTION,
+    caution: DESIGN_VALUE_CAUTION,
   };
 }

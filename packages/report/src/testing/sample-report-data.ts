@@ -4,6 +4,7 @@
  * values from seeded normal draws, control series with a step shift. Nothing here is real data.
  * Not part of the package's public surface.
  */
+import { DESIGN_VALUE_CAUTION } from '../caution.ts';
 import type {
   CharacteristicCurve,
   ControlSeries,
@@ -161,7 +162,7 @@ export function sampleReportData(options: SampleOptions = {}): ReportData {
         generated_at: '2026-01-15T10:00:00.000Z',
         settings: { grid_points: 61, fractile: 0.05, confidence: 0.75 },
         code_version: '0.1.0',
-        caution: 'Statistical estimates from the data given. Verify against the governing codes and have a licensed engineer review before use in design.',
+        caution: DESIGN_VALUE_CAUTION,
       },
     };
     const properties: ReportProperty[] = PROPERTIES.slice(0, propertyCount).map((p) => {
