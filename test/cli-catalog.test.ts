@@ -3,21 +3,16 @@
  * opened: the message names the file, the line and column, and the JSON Pointer (RFC 6901) of the
  * fault; no database folder is created. Strict JSON per RFC 8259 (no trailing comma).
  */
-import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { runFractile } from './support/cli.ts';
 import { afterAll, describe, expect, it } from 'vitest';
 
-const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
 const dir = mkdtempSync(join(tmpdir(), 'fractile-catalog-cli-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function fractile(cwd: string, ...args: string[]) {
-  const r = spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8', cwd, env: { ...process.env, DATABASE_URL: '' } });
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+const fractile = runFractile;
 
 writeFileSync(join(dir, 'm.csv'), 'test_id,grade,supplier,tested_on,tensile[MPa]\nK-1,KX-300,Brandholm,2026-01-05,455\n');
 

@@ -4,21 +4,16 @@
  * 2 naming the files), and the example curve follows the law it states: a round bar of
  * d = 10 mm (S0 = π·d²/4, ISO 6892-1), E = 205 GPa on the linear part.
  */
-import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { runFractile } from './support/cli.ts';
 import { afterAll, describe, expect, it } from 'vitest';
 
-const bin = fileURLToPath(new URL('../packages/cli/bin/fractile.js', import.meta.url));
 const dir = mkdtempSync(join(tmpdir(), 'fractile-init-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-function fractile(cwd: string, ...args: string[]) {
-  const r = spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8', cwd, env: { ...process.env, DATABASE_URL: '' } });
-  return { status: r.status, stdout: r.stdout, stderr: r.stderr };
-}
+const fractile = runFractile;
 
 const FILES = ['fractile.json', 'manifest.csv', 'curves/HF-0001.csv', 'catalog.json', 'maps/semicolon.json'];
 

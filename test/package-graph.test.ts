@@ -19,7 +19,7 @@ function sourceFiles(dir: string): string[] {
   for (const e of readdirSync(dir)) {
     const p = join(dir, e);
     if (statSync(p).isDirectory()) out.push(...sourceFiles(p));
-    else if (/\.(ts|mts|mjs|js)$/.test(e) && !/\.test\.ts$/.test(e)) out.push(p);
+    else if (/\.m?[jt]s$/.test(e) && !/\.test\.ts$/.test(e)) out.push(p);
   }
   return out;
 }

@@ -9,7 +9,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { expect } from 'vitest';
 import { sql } from 'kysely';
 import { ingestManifests } from '@fractile/ingest';
 import { runReduce } from '@fractile/pipeline';
@@ -17,7 +17,8 @@ import { generateBenchmarkSet } from '@fractile/seed-demo';
 import { openStore, type Store } from '@fractile/store';
 import { createServerDatabase } from './databases.ts';
 
-export const FRACTILE_BIN = fileURLToPath(new URL('../../packages/cli/bin/fractile.js', import.meta.url));
+export { FRACTILE_BIN } from './cli.ts';
+import { FRACTILE_BIN } from './cli.ts';
 
 export interface WorkerProcess {
   child: ChildProcess;
@@ -69,6 +70,20 @@ export async function integrityCounts(store: Store): Promise<{ tests: number; id
            (select count(*) from stage_runs where status = 'running')::int as "runningStageRuns",
            (select count(*) from ingest_runs where status = 'running')::int as "runningIngestRuns"`.execute(store.db);
   return r.rows[0];
+}
+
+/**
+ * Asserts that the queued database holds what the one-process reference holds: `tests` tests, each
+ * test's content identical (contentFingerprint), the same counts of tests and result keys, and no
+ * stage or ingest run left `running`.
+ */
+export async function expectSameAsOneProcess(c: QueueCheck, tests: number): Promise<void> {
+  const want = await contentFingerprint(c.reference);
+  expect(want.size).toBe(tests);
+  expect(fingerprintDifferences(want, await contentFingerprint(c.queued))).toEqual([]);
+  const counts = await integrityCounts(c.queued);
+  expect(counts).toEqual(await integrityCounts(c.reference));
+  expect(counts).toMatchObject({ tests, identities: tests, runningStageRuns: 0, runningIngestRuns: 0 });
 }
 
 export interface QueueCheck {

@@ -77,6 +77,11 @@ export async function ensureTemplate(spec: TemplateSpec): Promise<string | null>
  */
 export const COPY_MARKER = '.fractile-copying';
 
+/** Removes everything in `folder` but the entries named in `keep` (a half-done copy). */
+export function clearFolder(folder: string, keep: readonly string[] = []): void {
+  for (const name of readdirSync(folder)) if (!keep.includes(name)) rmSync(path.join(folder, name), { recursive: true, force: true });
+}
+
 function syncFile(p: string): void {
   const fd = openSync(p, 'r');
   try {
@@ -93,7 +98,7 @@ function syncFile(p: string): void {
  * is on the disk.
  */
 export function copyTemplate(template: string, folder: string, keep: readonly string[] = []): void {
-  for (const name of readdirSync(folder)) if (!keep.includes(name)) rmSync(path.join(folder, name), { recursive: true, force: true });
+  clearFolder(folder, keep);
   const marker = path.join(folder, COPY_MARKER);
   writeFileSync(marker, `${process.pid}\n`);
   syncFile(marker);

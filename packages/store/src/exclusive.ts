@@ -111,45 +111,37 @@ export function serverExclusive(url: string): { exclusive: Exclusive; sections: 
     });
     return made;
   };
+  /**
+   * One try of the session advisory lock of `name` (exclusive, or shared), or polled every
+   * 200 ms until granted with `wait`; returns its release, or null when not granted.
+   */
+  const takeLock = async (name: string, mode: '' | '_shared', wait: boolean): Promise<(() => Promise<void>) | null> => {
+    const c = await connect();
+    const key = lockKey(name);
+    for (;;) {
+      const r = await c.query<{ ok: boolean }>(`select pg_try_advisory_lock${mode}($1::int8) as ok`, [key]);
+      if (r.rows[0].ok) break;
+      if (!wait) return null;
+      await new Promise((res) => setTimeout(res, 200));
+    }
+    return async () => {
+      await c.query(`select pg_advisory_unlock${mode}($1::int8)`, [key]).catch(() => {});
+    };
+  };
   const exclusive: Exclusive = (name, fn) =>
     local(name, async () => {
-      const c = await connect();
-      const key = lockKey(name);
-      for (;;) {
-        const r = await c.query<{ ok: boolean }>('select pg_try_advisory_lock($1::int8) as ok', [key]);
-        if (r.rows[0].ok) break;
-        await new Promise((res) => setTimeout(res, 200));
-      }
+      const release = (await takeLock(name, '', true))!;
       try {
         return await fn();
       } finally {
-        await c.query('select pg_advisory_unlock($1::int8)', [key]).catch(() => {});
+        await release();
       }
     });
-  // shared holds: pg_try_advisory_lock_shared polled like the exclusive one; "alone": one try of
-  // the exclusive lock, which the server grants only when no session holds the key in any mode
+  // shared holds wait like the exclusive one; "alone" is one try of the exclusive lock, which the
+  // server grants only when no session holds the key in any mode
   const sections = inProcessShared({
-    async takeShared(name) {
-      const c = await connect();
-      const key = lockKey(name);
-      for (;;) {
-        const r = await c.query<{ ok: boolean }>('select pg_try_advisory_lock_shared($1::int8) as ok', [key]);
-        if (r.rows[0].ok) break;
-        await new Promise((res) => setTimeout(res, 200));
-      }
-      return async () => {
-        await c.query('select pg_advisory_unlock_shared($1::int8)', [key]).catch(() => {});
-      };
-    },
-    async tryAlone(name) {
-      const c = await connect();
-      const key = lockKey(name);
-      const r = await c.query<{ ok: boolean }>('select pg_try_advisory_lock($1::int8) as ok', [key]);
-      if (!r.rows[0].ok) return null;
-      return async () => {
-        await c.query('select pg_advisory_unlock($1::int8)', [key]).catch(() => {});
-      };
-    },
+    takeShared: async (name) => (await takeLock(name, '_shared', true))!,
+    tryAlone: (name) => takeLock(name, '', false),
   });
   return {
     exclusive,

@@ -19,7 +19,7 @@
  * writer per name across processes (exclusive.ts).
  */
 import { AsyncLocalStorage } from 'node:async_hooks';
-import { existsSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { PGlite } from '@electric-sql/pglite';
@@ -31,7 +31,7 @@ import { from as copyFrom, to as copyTo } from 'pg-copy-streams';
 import { BinaryCopyEncoder, decodeBinaryCopy, type BinaryType, type BinaryValue, type DecodedValue } from './copy-binary.ts';
 import { copyLine } from './copy-text.ts';
 import { prepareFolder } from './embedded-folder.ts';
-import { COPY_MARKER, copyTemplate, ensureTemplate, type TemplateSpec } from './embedded-template.ts';
+import { clearFolder, COPY_MARKER, copyTemplate, ensureTemplate, type TemplateSpec } from './embedded-template.ts';
 import { HOLDER_FILE } from './folder-lock.ts';
 import { MIGRATIONS } from './migrations/index.ts';
 import { inProcessExclusive, inProcessShared, serverExclusive, type Exclusive, type SharedSections } from './exclusive.ts';
@@ -144,7 +144,7 @@ function openPglite(target: string, opts: OpenStoreOptions): Promise<Store> {
         const spec = templateSpec();
         const template = spec ? await ensureTemplate(spec) : null;
         if (template) copyTemplate(template, folder.path, [HOLDER_FILE]);
-        else if (halfCopied) for (const f of readdirSync(folder.path)) if (f !== HOLDER_FILE) rmSync(path.join(folder.path, f), { recursive: true, force: true });
+        else if (halfCopied) clearFolder(folder.path, [HOLDER_FILE]);
       }
       pglite = await PGlite.create(folder?.path ?? target, {
         parsers: { 20: (v: string) => Number(v), 1082: (v: string) => v },
