@@ -39,7 +39,7 @@ export interface BatchSource {
 }
 
 /** records whose curves may be read ahead of the one being written (the pool bounds how many) */
-const AHEAD = 16;
+const AHEAD = 64;
 
 const batchRecord = (r: ManifestRecord, file: string): BatchRecord => ({ lab: r.lab, testId: r.testId, grade: r.grade, supplier: r.supplier, heat: r.heat, file, line: r.line });
 

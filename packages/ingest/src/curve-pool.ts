@@ -1,9 +1,9 @@
 /**
  * Curve files read (and, when the ingest reduces, reduced: curve-task.ts) ahead of the batch
  * writer: in worker threads (piscina) when asked for and there are enough rows, else in-process.
- * `ahead(rec)` starts reading a record's curve if fewer than `lookahead` reads are pending;
- * `take(rec)` gives the read (started now if it was not), once. Memory: at most `lookahead`
- * parsed curves wait at a time, whatever the batch size. Reading overlaps COPY: while a curve is
+ * `ahead(rec)` starts reading a record's curve if the read-ahead bounds allow (READ_AHEAD);
+ * `take(rec)` gives the read (started now if it was not), once. Memory: at most READ_AHEAD's
+ * curves and bytes wait at a time, whatever the batch size. Reading overlaps COPY: while a curve is
  * written the next ones are parsed.
  *
  * Workers (default): one on two or three cores, one less than the cores from four on, at most 8;
@@ -35,16 +35,34 @@ export function defaultCurveWorkers(cores = availableParallelism()): number {
 }
 
 /**
+ * Read-ahead bounds: at most this many curves pending, and at most this many bytes of curve file
+ * text pending (a parsed curve takes about twice its file's size; one read always starts, however
+ * long the file). On 1,000 tests × 2,000 points, two curves ahead per worker left the worker idle
+ * while the engine wrote a COPY chunk and the engine idle while the worker caught up: see README,
+ * Benchmarks.
+ */
+export const READ_AHEAD = { curves: 64, bytes: 24 * 1024 * 1024 };
+
+/**
  * @param reduceFor what to reduce a record's curve with, or null not to reduce it
  */
 export function curvePool(rows: number, workersOption: number | undefined, reduceFor: (rec: ManifestRecord) => CurveReduceInput | null = () => null): CurvePool {
   const workers = Math.max(0, Math.floor(workersOption ?? defaultCurveWorkers()));
   const pool =
     workers > 0 && rows >= 64
-      ? new Piscina({ filename: WORKER_URL, minThreads: workers, maxThreads: workers, resourceLimits: { maxOldGenerationSizeMb: 96 } })
+      ? new Piscina({
+          filename: WORKER_URL,
+          minThreads: workers,
+          maxThreads: workers,
+          // tasks are handed to the workers ahead, not one at a time: the engine blocks the main
+          // thread while it writes, and a worker that has to wait for its next task then idles
+          concurrentTasksPerWorker: Math.ceil(READ_AHEAD.curves / workers),
+          resourceLimits: { maxOldGenerationSizeMb: 96 },
+        })
       : null;
-  const lookahead = pool ? 2 * workers + 2 : 2;
+  const lookahead = pool ? READ_AHEAD.curves : 2;
   const pending = new Map<ManifestRecord, Promise<CurveTaskResult>>();
+  let pendingBytes = 0;
   const read = (rec: ManifestRecord, map: ColumnMap | null): Promise<CurveTaskResult> => {
     const task: CurveTask = { absPath: rec.curve!.absPath, displayPath: rec.curve!.displayPath, map, reduce: reduceFor(rec) };
     const p = pool ? (pool.run(task) as Promise<CurveTaskResult>) : runCurveTask(task);
@@ -53,12 +71,19 @@ export function curvePool(rows: number, workersOption: number | undefined, reduc
   };
   return {
     ahead(rec, map) {
-      if (rec.curve && !pending.has(rec) && pending.size < lookahead) pending.set(rec, read(rec, map));
+      if (!rec.curve || pending.has(rec) || pending.size >= lookahead) return;
+      if (pending.size > 0 && pendingBytes + rec.curve.sizeBytes > READ_AHEAD.bytes) return;
+      pendingBytes += rec.curve.sizeBytes;
+      pending.set(rec, read(rec, map));
     },
     take(rec, map) {
       const p = pending.get(rec);
-      pending.delete(rec);
-      return p ?? read(rec, map);
+      if (p) {
+        pending.delete(rec);
+        pendingBytes -= rec.curve!.sizeBytes;
+        return p;
+      }
+      return read(rec, map);
     },
     async destroy() {
       await pool?.destroy();

@@ -49,7 +49,8 @@ export interface ManifestRecord {
   orientation: string | null;
   temperatureC: number | null;
   summary: SummaryValues | null;
-  curve: { relPath: string; absPath: string; displayPath: string } | null;
+  /** the curve file; `sizeBytes` as found when the manifest was read (bounds read-ahead memory) */
+  curve: { relPath: string; absPath: string; displayPath: string; sizeBytes: number } | null;
   /** raised only if the curve needs S0 */
   geometryIssue: Rejection | null;
   /** raised only if the curve needs L0 */
@@ -288,13 +289,16 @@ function readRow(file: string, folder: string, displayFolder: string, line: numb
       const absPath = path.resolve(folder, curveRel);
       if (path.isAbsolute(curveRel) || !insideFolder(folder, absPath)) fail('curve', 'path_escapes_folder', `curve path ${showCell(curveRel)} leads outside the manifest's folder`);
       let isFile = false;
+      let sizeBytes = 0;
       try {
-        isFile = statSync(absPath).isFile();
+        const st = statSync(absPath);
+        isFile = st.isFile();
+        sizeBytes = st.size;
       } catch {
         isFile = false;
       }
       if (!isFile) fail('curve', 'missing_curve_file', `curve file ${showCell(curveRel)} not found`);
-      curve = { relPath: curveRel, absPath, displayPath: path.join(displayFolder, curveRel) };
+      curve = { relPath: curveRel, absPath, displayPath: path.join(displayFolder, curveRel), sizeBytes };
     }
     if (!curve && !summary) fail(cols.has('curve') ? 'curve' : 'test_id', 'missing_value', 'a record needs a curve file or summary values (yield, tensile, elongations)');
 
